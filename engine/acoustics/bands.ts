@@ -59,7 +59,8 @@ export function bandFromIndex(index: number, fraction: BandFraction): Band {
 export function bandIndexOf(frequencyHz: number, fraction: BandFraction): number {
   requirePositive('frequencyHz', frequencyHz);
   // log10 G = 0.3 exactly, so x = b·log10(f/1000)/0.3.
-  return Math.round((fraction * Math.log10(frequencyHz / REFERENCE_HZ)) / 0.3);
+  // "+ 0" turns Math.round(-0.4) = -0 into 0.
+  return Math.round((fraction * Math.log10(frequencyHz / REFERENCE_HZ)) / 0.3) + 0;
 }
 
 /** The band that contains f (an edge frequency belongs to the upper band). */
