@@ -27,6 +27,3 @@ export function div(a: Complex, b: Complex): Complex {
   const d = b.re * r + b.im;
   return cx((a.re * r + a.im) / d, (a.im * r - a.re) / d);
 }
-
-/** e^{jθ}. */
-export const expj = (theta: number): Complex => cx(Math.cos(theta), Math.sin(theta));
