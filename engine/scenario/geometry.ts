@@ -1,0 +1,147 @@
+/**
+ * The geometry the mesher consumes: air boxes, their bounding box, the openings through which air
+ * continues anechoically (where absorbing layers attach), the sorted coordinates of every box face
+ * (grid lines must pass through them), and the ports of a duct or the layout of a room.
+ * All coordinates pass through one snap per axis, so faces meant to coincide are equal numbers.
+ */
+import { boundingBox, type Box } from './box.ts';
+import { layOutBranch, layOutSections } from './duct-layout.ts';
+import { snapper, uniqueSorted } from './snap.ts';
+import type {
+  BranchEnd, BranchSide, NormalisedDuctScenario, NormalisedRoomScenario, NormalisedScenario, ReceiverInput, RoomSourceInput,
+  Side, Termination, WallCondition, WallKey,
+} from './types.ts';
+import { WALL_KEYS } from './fields.ts';
+
+export type { Box } from './box.ts';
+
+/** A rectangle in the two axes other than the normal, in x, y, z order (for ±x: a = y, b = z). */
+export interface Rect { a0: number; a1: number; b0: number; b1: number }
+
+export interface Opening { side: Side; rect: Rect; name: string }
+
+export interface CrossSection { y0: number; y1: number; z0: number; z1: number }
+
+export interface SectionLayout extends CrossSection { name: string; x0: number; x1: number; width: number; height: number }
+
+export interface BranchLayout { name: string; section: string; side: BranchSide; end: BranchEnd; box: Box }
+
+export interface DuctPorts {
+  /** x up to which the inlet section is a straight uniform duct: the first branch edge, or the section end. */
+  inlet: { x: number; rect: CrossSection; clearTo: number };
+  /** x from which the outlet section is a straight uniform duct: the last branch edge, or the section start. */
+  outlet: { x: number; rect: CrossSection; clearFrom: number; termination: Termination };
+  sections: SectionLayout[];
+  branches: BranchLayout[];
+}
+
+export interface RoomLayout {
+  size: [number, number, number];
+  walls: Record<WallKey, WallCondition>;
+  sources: RoomSourceInput[];
+  receivers: ReceiverInput[];
+}
+
+export interface Geometry {
+  kind: 'duct' | 'room';
+  boxes: Box[];
+  bounds: Box;
+  openings: Opening[];
+  /** Sorted unique coordinates of every box face, per axis. */
+  breakpoints: { x: number[]; y: number[]; z: number[] };
+  duct?: DuctPorts;
+  room?: RoomLayout;
+}
+
+interface Snap { x: (v: number) => number; y: (v: number) => number; z: (v: number) => number }
+
+export function buildGeometry(scenario: NormalisedScenario): Geometry {
+  return scenario.kind === 'duct' ? ductGeometry(scenario) : roomGeometry(scenario);
+}
+
+function snapsFor(boxes: readonly Box[]): Snap {
+  return {
+    x: snapper(boxes.flatMap((b) => [b.x0, b.x1])),
+    y: snapper(boxes.flatMap((b) => [b.y0, b.y1])),
+    z: snapper(boxes.flatMap((b) => [b.z0, b.z1])),
+  };
+}
+
+function snapBox(box: Box, s: Snap): Box {
+  return { x0: s.x(box.x0), x1: s.x(box.x1), y0: s.y(box.y0), y1: s.y(box.y1), z0: s.z(box.z0), z1: s.z(box.z1), tag: box.tag };
+}
+
+function breakpointsOf(boxes: readonly Box[]): Geometry['breakpoints'] {
+  return {
+    x: uniqueSorted(boxes.flatMap((b) => [b.x0, b.x1])),
+    y: uniqueSorted(boxes.flatMap((b) => [b.y0, b.y1])),
+    z: uniqueSorted(boxes.flatMap((b) => [b.z0, b.z1])),
+  };
+}
+
+function crossSection(box: Box): CrossSection {
+  return { y0: box.y0, y1: box.y1, z0: box.z0, z1: box.z1 };
+}
+
+/** The face of `box` on `side`, as a rectangle in the two remaining axes. */
+export function faceRect(box: Box, side: Side): Rect {
+  const axis = side[1];
+  if (axis === 'x') return { a0: box.y0, a1: box.y1, b0: box.z0, b1: box.z1 };
+  if (axis === 'y') return { a0: box.x0, a1: box.x1, b0: box.z0, b1: box.z1 };
+  return { a0: box.x0, a1: box.x1, b0: box.y0, b1: box.y1 };
+}
+
+function ductGeometry(scenario: NormalisedDuctScenario): Geometry {
+  const { sections, branches, outlet } = scenario.duct;
+  const rawSections = layOutSections(sections);
+  const rawBranches = branches.map((b) => {
+    const i = sections.findIndex((s) => s.name === b.section);
+    return layOutBranch(b, sections[i], rawSections[i]);
+  });
+  const snap = snapsFor([...rawSections, ...rawBranches]);
+  const sectionBoxes = rawSections.map((b) => snapBox(b, snap));
+  const branchBoxes = rawBranches.map((b) => snapBox(b, snap));
+  const boxes = [...sectionBoxes, ...branchBoxes];
+  const first = sectionBoxes[0], last = sectionBoxes[sectionBoxes.length - 1];
+  const openings: Opening[] = [{ side: '-x', rect: faceRect(first, '-x'), name: 'inlet' }];
+  if (outlet === 'anechoic') openings.push({ side: '+x', rect: faceRect(last, '+x'), name: 'outlet' });
+  branches.forEach((b, i) => {
+    if (b.end === 'open') openings.push({ side: b.side, rect: faceRect(branchBoxes[i], b.side), name: b.name });
+  });
+  const onSection = (name: string) => branchBoxes.filter((_, i) => branches[i].section === name);
+  const duct: DuctPorts = {
+    inlet: { x: first.x0, rect: crossSection(first), clearTo: Math.min(first.x1, ...onSection(first.tag).map((b) => b.x0)) },
+    outlet: { x: last.x1, rect: crossSection(last), clearFrom: Math.max(last.x0, ...onSection(last.tag).map((b) => b.x1)), termination: outlet },
+    sections: sectionBoxes.map((b) => ({ name: b.tag, x0: b.x0, x1: b.x1, width: b.y1 - b.y0, height: b.z1 - b.z0, ...crossSection(b) })),
+    branches: branches.map((b, i) => ({ name: b.name, section: b.section, side: b.side, end: b.end, box: branchBoxes[i] })),
+  };
+  return { kind: 'duct', boxes, bounds: boundingBox(boxes, 'bounds'), openings, breakpoints: breakpointsOf(boxes), duct };
+}
+
+/** Room walls are keyed "x-" in the file; openings use the outward normal "-x". */
+export function wallSide(key: WallKey): Side {
+  return `${key[1]}${key[0]}` as Side;
+}
+
+function roomGeometry(scenario: NormalisedRoomScenario): Geometry {
+  const { size, walls, sources, receivers } = scenario.room;
+  const room: Box = { x0: 0, x1: size[0], y0: 0, y1: size[1], z0: 0, z1: size[2], tag: 'room' };
+  const openings = WALL_KEYS.filter((k) => walls[k] === 'open').map((k) => ({ side: wallSide(k), rect: faceRect(room, wallSide(k)), name: `wall ${k}` }));
+  return {
+    kind: 'room',
+    boxes: [room],
+    bounds: { ...room, tag: 'bounds' },
+    openings,
+    breakpoints: breakpointsOf([room]),
+    room: {
+      size: copy3(size),
+      walls: { ...walls },
+      sources: sources.map((s) => ({ ...s, position: copy3(s.position) })),
+      receivers: receivers.map((r) => ({ ...r, position: copy3(r.position) })),
+    },
+  };
+}
+
+function copy3(v: readonly [number, number, number]): [number, number, number] {
+  return [v[0], v[1], v[2]];
+}

@@ -1,0 +1,9 @@
+// Public API of the scenario layer: read and check a scenario file, and the geometry it describes.
+export * from './types.ts';
+export { ScenarioError, formatIssues } from './issues.ts';
+export { parseScenarioText, DEFAULT_MAX_BYTES, MAX_NESTING_DEPTH, FORBIDDEN_KEYS, type ParseOptions } from './parse.ts';
+export { validateScenario, DEFAULT_TITLE } from './validate.ts';
+export { readScenario } from './read.ts';
+export { buildGeometry, faceRect, wallSide, type Geometry, type Opening, type Rect, type CrossSection, type SectionLayout, type BranchLayout, type DuctPorts, type RoomLayout } from './geometry.ts';
+export { SNAP_TOLERANCE, type Box } from './box.ts';
+export { SCENARIO_FIELDS, LIMITS, READABLE_FORMATS, NAME_PATTERN, OCTAVE_BAND_KEYS } from './fields.ts';
