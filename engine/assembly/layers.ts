@@ -55,7 +55,7 @@ export function padeReflection(p: number, lengths: Complex[], q: Complex): Compl
 /** The normal wavenumbers (as k_x/k) a layer stack should absorb. */
 export interface AbsorptionRange {
   propagating: [number, number]; // k_x/k of propagating waves (grazing … normal)
-  evanescent: [number, number]; // κ/k of evanescent waves
+  evanescent: [number, number] | null; // κ/k of evanescent waves; null where none reach the layers
 }
 
 export const DEFAULT_RANGE: AbsorptionRange = { propagating: [0.2, 1], evanescent: [0.2, 5] };
@@ -65,7 +65,7 @@ function samples(r: AbsorptionRange, count = 24): Complex[] {
   for (let i = 0; i < count; i++) {
     const t = i / (count - 1);
     out.push({ re: r.propagating[0] * Math.pow(r.propagating[1] / r.propagating[0], t), im: 0 });
-    out.push({ re: 0, im: -r.evanescent[0] * Math.pow(r.evanescent[1] / r.evanescent[0], t) });
+    if (r.evanescent) out.push({ re: 0, im: -r.evanescent[0] * Math.pow(r.evanescent[1] / r.evanescent[0], t) });
   }
   return out;
 }
@@ -104,12 +104,12 @@ const chosen = new Map<string, Complex[]>();
  * log10 of the worst reflection from a few seeds, deterministic, cached per (p, layers, range).
  */
 export function chooseLengths(p: number, layers: number, range: AbsorptionRange = DEFAULT_RANGE): Complex[] {
-  const key = `${p}/${layers}/${range.propagating.join(',')}/${range.evanescent.join(',')}`;
+  const key = `${p}/${layers}/${range.propagating.join(',')}/${range.evanescent?.join(',') ?? '-'}`;
   const hit = chosen.get(key);
   if (hit) return hit;
   const seeds: Complex[][] = [geometricSeed(layers)];
   const table = SEEDS[`${p}/${layers}`];
-  if (table) seeds.unshift(table.map(([re, im]) => ({ re, im: -im })));
+  if (table && range.evanescent) seeds.unshift(table.map(([re, im]) => ({ re, im: -im })));
   const toVec = (ls: Complex[]) => ls.flatMap((l) => [l.re, l.im]);
   const toLengths = (v: number[]) => Array.from({ length: layers }, (_, j) => ({ re: v[2 * j], im: v[2 * j + 1] }));
   const cost = (v: number[]) => Math.log10(worstReflection(p, toLengths(v), range) + 1e-300);

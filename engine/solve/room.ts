@@ -1,0 +1,79 @@
+/**
+ * A room (or any box of air) with rigid, open or locally reacting walls, driven by point sources of
+ * given volume velocity; the result is the pressure at each receiver. Open walls carry absorbing layers
+ * on their face, with edge and corner layers where open walls meet.
+ */
+import { buildGrid, type AirBox, type GridOpening, type Side } from '../grid/grid.ts';
+import { buildMesh, type Mesh } from '../grid/mesh.ts';
+import { assembleHelmholtz, symbolicAssembly, uniformMaterials, type AssemblyPattern, type Materials } from '../assembly/assemble.ts';
+import { layerStretches, type AbsorberKind } from '../assembly/layers.ts';
+import { addSurfaceAdmittance, boundaryFaces, type SurfaceFace } from '../assembly/boundary.ts';
+import { addPointLoad, evaluateAt } from '../assembly/sources.ts';
+import { zeroVector, type ComplexCsr, type ComplexVector } from '../linalg/sparse.ts';
+import type { Symbolic } from '../linalg/index.ts';
+import { analyzeMesh, solveAt, type LinearStats } from './linear.ts';
+
+export interface RoomModel {
+  box: AirBox;
+  open: Side[];
+  surfaces: { side: Side; admittance: { re: number; im: number } }[]; // per unit of 1/Z_s
+  sources: { name: string; position: [number, number, number]; volumeVelocity: number }[];
+  receivers: { name: string; position: [number, number, number] }[];
+  soundSpeed: number;
+  density: number;
+  order: number;
+  pointsPerWavelength: number;
+  maxFrequencyHz: number;
+  absorber: { kind: AbsorberKind; layers: number; thickness?: number };
+}
+
+export interface RoomPrepared { model: RoomModel; mesh: Mesh; assembly: AssemblyPattern; symbolic: Symbolic; materials: Materials; faces: { element: number; side: Side; admittance: { re: number; im: number } }[] }
+
+export interface RoomPoint {
+  frequencyHz: number;
+  receivers: { name: string; pressure: { re: number; im: number }; splDb: number }[];
+  stats: LinearStats & { assembleSeconds: number };
+  field?: ComplexVector;
+}
+
+const P_REF = 20e-6;
+
+export function prepareRoom(model: RoomModel): RoomPrepared {
+  const b = model.box;
+  const rectOf = (s: Side) => (s[1] === 'x' ? { a0: b.y0, a1: b.y1, b0: b.z0, b1: b.z1 } : s[1] === 'y' ? { a0: b.x0, a1: b.x1, b0: b.z0, b1: b.z1 } : { a0: b.x0, a1: b.x1, b0: b.y0, b1: b.y1 });
+  const openings: GridOpening[] = model.open.map((side) => ({ side, rect: rectOf(side) }));
+  const lambda = model.soundSpeed / model.maxFrequencyHz;
+  const grid = buildGrid({
+    order: model.order, boxes: [b], openings, maxElementSize: (model.order * lambda) / model.pointsPerWavelength,
+    layerCount: model.absorber.layers, layerThickness: model.absorber.thickness !== undefined ? model.absorber.thickness / model.absorber.layers : undefined,
+  });
+  const mesh = buildMesh(grid), assembly = symbolicAssembly(mesh);
+  const faces: SurfaceFace[] = model.surfaces.flatMap((s) => boundaryFaces(mesh, s.side, () => true).map((f) => ({ ...f, admittance: s.admittance })));
+  const materials = uniformMaterials(mesh.elements.length, model.density, model.density * model.soundSpeed ** 2);
+  return { model, mesh, assembly, symbolic: analyzeMesh(mesh, assembly.pattern), materials, faces };
+}
+
+export function roomSystem(prep: RoomPrepared, frequencyHz: number): { A: ComplexCsr; b: ComplexVector } {
+  const { model, mesh } = prep, omega = 2 * Math.PI * frequencyHz, k = omega / model.soundSpeed;
+  const A = assembleHelmholtz(mesh, prep.assembly, omega, layerStretches(mesh.grid, k, { kind: model.absorber.kind }), prep.materials);
+  addSurfaceAdmittance(A, mesh, prep.assembly, omega, prep.faces);
+  const b = zeroVector(A.n);
+  // b_i = jωQ φ_i(x₀) for a monopole of volume velocity Q (peak)
+  for (const s of model.sources) addPointLoad(mesh, s.position, { re: 0, im: omega * s.volumeVelocity }, b);
+  return { A, b };
+}
+
+export function roomResults(prep: RoomPrepared, frequencyHz: number, u: ComplexVector): RoomPoint['receivers'] {
+  return prep.model.receivers.map((r) => {
+    const p = evaluateAt(prep.mesh, u, r.position);
+    return { name: r.name, pressure: p, splDb: 20 * Math.log10(Math.hypot(p.re, p.im) / Math.SQRT2 / P_REF) };
+  });
+}
+
+export function solveRoomAt(prep: RoomPrepared, frequencyHz: number, now: () => number, keepField = false): RoomPoint {
+  const t0 = now();
+  const { A, b } = roomSystem(prep, frequencyHz);
+  const t1 = now();
+  const { x: u, stats } = solveAt(A, prep.symbolic, b, frequencyHz, now);
+  return { frequencyHz, receivers: roomResults(prep, frequencyHz, u), stats: { ...stats, assembleSeconds: (t1 - t0) / 1000 }, field: keepField ? u : undefined };
+}

@@ -1,0 +1,100 @@
+/**
+ * One scenario: from the validated file to a prepared problem (mesh, pattern, analysis: once per
+ * geometry) and results per frequency. The mesh is graded for the top frequency of the scenario's whole
+ * sweep, never of a subset, so that parts of one sweep solved apart (other machines, other workers) are
+ * the same computation and their results can be merged.
+ */
+import type { NormalisedScenario } from '../scenario/types.ts';
+import { buildGeometry, type Geometry } from '../scenario/geometry.ts';
+import { cutOnFrequencies, type DuctMode } from '../acoustics/index.ts';
+import type { ComplexCsr, ComplexVector } from '../linalg/sparse.ts';
+import type { Side } from '../grid/grid.ts';
+import { surfaceAdmittance } from '../assembly/boundary.ts';
+import { ductResults, ductSystem, prepareDuct, solveDuctAt, type DuctPoint, type DuctPrepared } from './duct.ts';
+import { prepareRoom, roomResults, roomSystem, solveRoomAt, type RoomPoint, type RoomPrepared } from './room.ts';
+import type { Mesh } from '../grid/mesh.ts';
+
+export interface MeshInfo {
+  order: number;
+  pointsPerWavelength: number;
+  topFrequencyHz: number;
+  absorberKind: string;
+  layers: number;
+  elements: number;
+  dofs: number;
+  nnz: number;
+  factorNonzeros: number;
+  factorFlops: number;
+  memoryEstimateBytes: number;
+}
+
+export type Prepared =
+  | { kind: 'duct'; scenario: NormalisedScenario; geometry: Geometry; duct: DuctPrepared; info: MeshInfo }
+  | { kind: 'room'; scenario: NormalisedScenario; geometry: Geometry; room: RoomPrepared; info: MeshInfo };
+
+export type PointResult = ({ kind: 'duct' } & DuctPoint) | ({ kind: 'room' } & RoomPoint);
+
+const WALL_SIDE: Record<string, Side> = { 'x-': '-x', 'x+': '+x', 'y-': '-y', 'y+': '+y', 'z-': '-z', 'z+': '+z' };
+
+export function prepareScenario(s: NormalisedScenario): Prepared {
+  const geometry = buildGeometry(s), top = Math.max(...s.sweep.frequenciesHz);
+  const common = {
+    soundSpeed: s.air.soundSpeed, density: s.air.density, order: s.mesh.order, pointsPerWavelength: s.mesh.pointsPerWavelength,
+    maxFrequencyHz: top, absorber: { kind: s.absorber.kind, layers: s.absorber.layers, thickness: s.absorber.thickness ?? undefined },
+  };
+  if (s.kind === 'duct') {
+    const ports = geometry.duct!, term = ports.outlet.termination;
+    if (typeof term !== 'string') throw new Error('duct.outlet: absorbing or impedance terminations come with the linings work; use "anechoic" or "rigid" for now');
+    const rectOf = (r: { y0: number; y1: number; z0: number; z1: number }) => ({ y0: r.y0, y1: r.y1, z0: r.z0, z1: r.z1 });
+    const duct = prepareDuct({
+      ...common, boxes: geometry.boxes, openings: geometry.openings,
+      inlet: { x: ports.inlet.x, rect: rectOf(ports.inlet.rect), clearTo: ports.inlet.clearTo },
+      outlet: { x: ports.outlet.x, rect: rectOf(ports.outlet.rect), clearFrom: ports.outlet.clearFrom, termination: term },
+      incident: { mode: s.duct.incident.mode, amplitude: s.duct.incident.amplitudePa },
+    });
+    return { kind: 'duct', scenario: s, geometry, duct, info: info(s, duct.mesh, duct.assembly.pattern.colIdx.length, duct.symbolic, top) };
+  }
+  const layout = geometry.room!, rhoC = s.air.density * s.air.soundSpeed;
+  const walls = Object.entries(layout.walls);
+  const room = prepareRoom({
+    ...common, box: geometry.bounds,
+    open: walls.filter(([, w]) => w === 'open').map(([k]) => WALL_SIDE[k]),
+    surfaces: walls.filter(([, w]) => typeof w === 'object').map(([k, w]) => ({ side: WALL_SIDE[k], admittance: surfaceAdmittance(w as { absorption: number } | { impedance: [number, number] }, rhoC) })),
+    sources: layout.sources, receivers: layout.receivers,
+  });
+  return { kind: 'room', scenario: s, geometry, room, info: info(s, room.mesh, room.assembly.pattern.colIdx.length, room.symbolic, top) };
+}
+
+function info(s: NormalisedScenario, mesh: Mesh, nnz: number, sym: { nnzL: number; flops: number; memoryBytes: number }, top: number): MeshInfo {
+  return {
+    order: s.mesh.order, pointsPerWavelength: s.mesh.pointsPerWavelength, topFrequencyHz: top, absorberKind: s.absorber.kind, layers: s.absorber.layers,
+    elements: mesh.elements.length, dofs: mesh.numbering.ndofs, nnz, factorNonzeros: sym.nnzL, factorFlops: sym.flops, memoryEstimateBytes: sym.memoryBytes,
+  };
+}
+
+export function meshOf(p: Prepared): Mesh {
+  return p.kind === 'duct' ? p.duct.mesh : p.room.mesh;
+}
+
+export function solvePoint(p: Prepared, frequencyHz: number, now: () => number, keepField = false): PointResult {
+  return p.kind === 'duct' ? { kind: 'duct', ...solveDuctAt(p.duct, frequencyHz, now, keepField) } : { kind: 'room', ...solveRoomAt(p.room, frequencyHz, now, keepField) };
+}
+
+/** The assembled system at one frequency, for an external solver. */
+export function systemAt(p: Prepared, frequencyHz: number): { A: ComplexCsr; b: ComplexVector } {
+  return p.kind === 'duct' ? ductSystem(p.duct, frequencyHz) : roomSystem(p.room, frequencyHz);
+}
+
+/** Results from a solution vector computed elsewhere (an external solver's answer to `systemAt`). */
+export function resultsFromSolution(p: Prepared, frequencyHz: number, u: ComplexVector): PointResult {
+  const stats = { factorSeconds: 0, solveSeconds: 0, perturbedPivots: 0, assembleSeconds: 0 };
+  if (p.kind === 'duct') return { kind: 'duct', ...ductResults(p.duct, frequencyHz, u), stats };
+  return { kind: 'room', frequencyHz, receivers: roomResults(p.room, frequencyHz, u), stats };
+}
+
+/** Cut-on frequencies of every duct section up to a limit (Morse & Ingard, Theoretical Acoustics, 1968). */
+export function sectionCutOns(p: Prepared, maxHz: number): { section: string; modes: DuctMode[] }[] {
+  if (p.kind !== 'duct') return [];
+  const c = p.scenario.air.soundSpeed;
+  return p.geometry.duct!.sections.map((s) => ({ section: s.name, modes: cutOnFrequencies(s.width, s.height, c, maxHz).slice(0, 6) }));
+}
