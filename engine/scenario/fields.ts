@@ -82,6 +82,19 @@ export const SCENARIO_FIELDS: Readonly<Record<string, readonly string[]>> = {
   'linings[].material': ['model', 'flowResistivity'],
 };
 
+/** The enumerations of the format by path pattern, as the validator reads them (the schema test compares). */
+export const SCENARIO_ENUMS: Readonly<Record<string, readonly string[]>> = {
+  format: READABLE_FORMATS,
+  'sweep.spacing': SPACINGS,
+  'absorber.kind': ABSORBER_KINDS,
+  'duct.outlet': TERMINATION_WORDS,
+  'duct.branches[].side': BRANCH_SIDES,
+  'duct.branches[].end': BRANCH_ENDS,
+  ...Object.fromEntries(WALL_KEYS.map((key) => [`room.walls.${key}`, WALL_WORDS])),
+  'linings[].faces[]': SIDES,
+  'linings[].material.model': LINING_MODELS,
+};
+
 /** The field list for a concrete path such as "duct.sections[2]". */
 export function fieldsAt(path: string): readonly string[] {
   const pattern = path.replace(/\[\d+\]/g, '[]');

@@ -6,4 +6,4 @@ export { validateScenario, DEFAULT_TITLE } from './validate.ts';
 export { readScenario } from './read.ts';
 export { buildGeometry, faceRect, wallSide, type Geometry, type Opening, type Rect, type CrossSection, type SectionLayout, type BranchLayout, type DuctPorts, type RoomLayout } from './geometry.ts';
 export { SNAP_TOLERANCE, type Box } from './box.ts';
-export { SCENARIO_FIELDS, LIMITS, READABLE_FORMATS, NAME_PATTERN, OCTAVE_BAND_KEYS } from './fields.ts';
+export { SCENARIO_FIELDS, SCENARIO_ENUMS, LIMITS, READABLE_FORMATS, NAME_PATTERN, OCTAVE_BAND_KEYS } from './fields.ts';

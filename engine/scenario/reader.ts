@@ -59,19 +59,19 @@ export interface NumberRule {
 /** A finite number obeying `rule`, or undefined (with an error unless the field is absent). */
 export function readNumber(ck: Checker, value: Found, path: string, what: string, rule: NumberRule): number | undefined {
   if (value === MISSING) return undefined;
-  const key = lastKey(path);
+  const key = settable(path);
   if (typeof value !== 'number') {
     const fix = typeof value === 'string' && Number.isFinite(Number(value)) && value.trim() !== ''
-      ? `write ${value.trim()} without quotes` : `set ${key} to a number ${rangeText(rule)}`;
+      ? `write ${value.trim()} without quotes` : `set ${key} to a number${withRange(rule)}`;
     ck.error(path, value, 'type', `${what} must be a number${unitText(rule)}`, fix);
     return undefined;
   }
   if (!Number.isFinite(value)) {
-    ck.error(path, value, 'finite', `${what} must be a finite number`, `set ${key} to a number ${rangeText(rule)}`);
+    ck.error(path, value, 'finite', `${what} must be a finite number`, `set ${key} to a number${withRange(rule)}`);
     return undefined;
   }
   if (rule.integer && !Number.isInteger(value)) {
-    ck.error(path, value, 'integer', `${what} must be a whole number`, `use a whole number ${rangeText(rule)}, e.g. ${num(clamp(Math.round(value), rule))}`);
+    ck.error(path, value, 'integer', `${what} must be a whole number`, `use a whole number${withRange(rule)}, e.g. ${num(clamp(Math.round(value), rule))}`);
     return undefined;
   }
   if (!inRange(value, rule)) {
@@ -110,9 +110,15 @@ function unitText(r: NumberRule): string {
   return r.unit === undefined ? '' : ` (${r.unit})`;
 }
 
-function lastKey(path: string): string {
-  const match = /([^.[\]]+)(\[\d+\])?$/.exec(path);
-  return match === null ? path : match[1];
+function withRange(r: NumberRule): string {
+  const text = rangeText(r);
+  return text === '' ? '' : ` ${text}`;
+}
+
+/** How a fix names the field: by its key when that reads as a word ("set at …"), else "it" (array items, "125"). */
+function settable(path: string): string {
+  const match = /(?:^|\.)([A-Za-z]\w*)$/.exec(path);
+  return match === null ? 'it' : match[1];
 }
 
 /** A number with a default: absent → the default, recorded with the reason. */
@@ -171,6 +177,12 @@ export interface ArrayRule {
   maxItems: number;
   /** What one item is, for messages ("section"). */
   itemWhat: string;
+  /** Plural of itemWhat, when not itemWhat + "s". */
+  itemsWhat?: string;
+}
+
+function counted(n: number, rule: ArrayRule): string {
+  return `${n} ${n === 1 ? rule.itemWhat : (rule.itemsWhat ?? `${rule.itemWhat}s`)}`;
 }
 
 export function readArray(ck: Checker, value: Found, path: string, what: string, rule: ArrayRule): unknown[] | undefined {
@@ -180,9 +192,11 @@ export function readArray(ck: Checker, value: Found, path: string, what: string,
     return undefined;
   }
   if (value.length < rule.minItems || value.length > rule.maxItems) {
-    const range = rule.minItems === rule.maxItems ? `exactly ${rule.minItems}` : `between ${rule.minItems} and ${rule.maxItems}`;
-    ck.error(path, value, 'count', `${what} must have ${range} items (it has ${value.length})`,
-      value.length < rule.minItems ? `add ${rule.itemWhat} items` : `remove items down to ${rule.maxItems}`);
+    const exact = rule.minItems === rule.maxItems;
+    const range = exact ? `exactly ${rule.minItems}` : `between ${rule.minItems} and ${rule.maxItems}`;
+    const fix = exact ? `give exactly ${counted(rule.minItems, rule)}`
+      : value.length < rule.minItems ? `give at least ${counted(rule.minItems, rule)}` : `remove items down to ${rule.maxItems}`;
+    ck.error(path, value, 'count', `${what} must have ${range} items (it has ${value.length})`, fix);
     return undefined;
   }
   return value;

@@ -3,18 +3,23 @@
  * instead of leaving the user to compare against a list.
  */
 
-/** Levenshtein edit distance (insertions, deletions, substitutions), two-row dynamic programme. */
+/**
+ * Edit distance counting insertions, deletions, substitutions and swaps of neighbours ("inelt" is
+ * one step from "inlet"): the optimal-string-alignment variant of the Damerau–Levenshtein distance.
+ */
 export function editDistance(a: string, b: string): number {
-  let previous = Array.from({ length: b.length + 1 }, (_, j) => j);
+  const rows: number[][] = [Array.from({ length: b.length + 1 }, (_, j) => j)];
   for (let i = 1; i <= a.length; i++) {
-    const current = [i];
+    const row = [i];
     for (let j = 1; j <= b.length; j++) {
-      const substitution = previous[j - 1] + (a[i - 1] === b[j - 1] ? 0 : 1);
-      current.push(Math.min(previous[j] + 1, current[j - 1] + 1, substitution));
+      const cost = a[i - 1] === b[j - 1] ? 0 : 1;
+      let d = Math.min(rows[i - 1][j] + 1, row[j - 1] + 1, rows[i - 1][j - 1] + cost);
+      if (i > 1 && j > 1 && a[i - 1] === b[j - 2] && a[i - 2] === b[j - 1]) d = Math.min(d, rows[i - 2][j - 2] + 1);
+      row.push(d);
     }
-    previous = current;
+    rows.push(row);
   }
-  return previous[b.length];
+  return rows[a.length][b.length];
 }
 
 // Words longer than this are not compared: a pasted paragraph is no misspelt key.

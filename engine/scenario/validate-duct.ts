@@ -38,7 +38,7 @@ function readList<T>(ck: Checker, duct: Json, key: 'sections' | 'branches', maxI
   const what = key === 'sections' ? 'the list of duct sections' : 'the list of side branches';
   const example = '[{"name": "inlet", "length": 0.6, "width": 0.15, "height": 0.1}]';
   const raw = key === 'sections' ? required(ck, duct, 'duct', key, 'the list of duct sections', example) : get(duct, key);
-  const items = readArray(ck, raw, path, what, { minItems, maxItems, itemWhat: key === 'sections' ? 'section' : 'branch' });
+  const items = readArray(ck, raw, path, what, { minItems, maxItems, itemWhat: key === 'sections' ? 'section' : 'branch', itemsWhat: key === 'sections' ? 'sections' : 'branches' });
   return items?.map((v, i) => readItem(ck, v, item(path, i)));
 }
 

@@ -30,7 +30,7 @@ function readList(ck: Checker, sweep: Json): NormalisedSweep | undefined {
       `remove "${key}", or remove "frequenciesHz"`);
   }
   const path = 'sweep.frequenciesHz';
-  const list = readArray(ck, sweep.frequenciesHz, path, 'the list of frequencies', { minItems: 1, maxItems: LIMITS.maxFrequencies, itemWhat: 'frequency in Hz' });
+  const list = readArray(ck, sweep.frequenciesHz, path, 'the list of frequencies', { minItems: 1, maxItems: LIMITS.maxFrequencies, itemWhat: 'frequency', itemsWhat: 'frequencies' });
   if (list === undefined) return undefined;
   const frequencies = list.map((f, i) => readNumber(ck, f, item(path, i), 'a frequency', FREQUENCY));
   frequencies.forEach((f, i) => {
