@@ -2,7 +2,7 @@
  * The validator's notebook: errors, warnings and defaults collected in the order found, with a cap
  * so that a file of a million stray keys yields a readable report rather than a million lines.
  */
-import { makeIssue, MISSING, type Found } from './issues.ts';
+import { makeIssue, type Found } from './issues.ts';
 import type { DefaultUsed, Issue } from './types.ts';
 
 export const MAX_REPORTED_ERRORS = 100;
@@ -37,10 +37,9 @@ export class Checker {
   /** The errors, closed by a note on how many more were found but not listed. */
   reportedErrors(): Issue[] {
     if (this.unreported === 0) return this.errors;
-    const more = makeIssue('', MISSING, 'too-many-errors', `${this.unreported} more errors were found and not listed`,
-      'correct the errors above and validate again');
-    more.message = `${this.unreported} more errors were found and not listed; fix: correct the errors above and validate again`;
-    return [...this.errors, more];
+    const fix = 'correct the errors above and validate again';
+    const statement = `${this.unreported} more errors were found and not listed`;
+    return [...this.errors, { path: '', rule: 'too-many-errors', fix, message: `${statement}; fix: ${fix}` }];
   }
 }
 

@@ -3,7 +3,7 @@
  * error naming the field and returns undefined, so the callers can go on and find further problems.
  */
 import { join, type Checker } from './checker.ts';
-import { fieldsAt } from './fields.ts';
+import { fieldsAt, LIMITS, NAME_REGEXP } from './fields.ts';
 import { MISSING, num, type Found } from './issues.ts';
 import { didYouMean } from './suggest.ts';
 
@@ -170,6 +170,13 @@ export function readString(ck: Checker, value: Found, path: string, what: string
     return undefined;
   }
   return value;
+}
+
+const NAME_RULE: StringRule = { maxLength: LIMITS.maxNameLength, pattern: NAME_REGEXP, patternText: 'must not be empty, start or end with a space, or hold control characters' };
+
+/** The required "name" of a section, branch, source or receiver. */
+export function readName(ck: Checker, obj: Json, path: string, what: string): string | undefined {
+  return readString(ck, required(ck, obj, path, 'name', `the ${what}'s name`, '"inlet"'), join(path, 'name'), `the ${what}'s name`, NAME_RULE);
 }
 
 export interface ArrayRule {

@@ -3,19 +3,14 @@
  * The rules between parts (connected, inside, clear of each other) are in duct-rules.ts.
  */
 import { item, join, type Checker } from './checker.ts';
-import { BRANCH_ENDS, BRANCH_SIDES, LIMITS, NAME_REGEXP, TERMINATION_WORDS } from './fields.ts';
+import { BRANCH_ENDS, BRANCH_SIDES, LIMITS, TERMINATION_WORDS } from './fields.ts';
 import { MISSING, type Found } from './issues.ts';
-import { get, readArray, readEnum, readEnumOr, readNumber, readNumberOr, readNumbers, readObject, readString, required, type Json } from './reader.ts';
+import { get, readArray, readEnum, readEnumOr, readName, readNumber, readNumberOr, readNumbers, readObject, readString, required, type Json } from './reader.ts';
 import { checkDuctRules, type DuctContext } from './duct-rules.ts';
 import { readBoundary } from './validate-boundary.ts';
 import type { NormalisedBranch, NormalisedDuct, NormalisedSection, Termination } from './types.ts';
 
 const LENGTH = { unit: 'm', above: 0 } as const;
-const NAME_RULE = { maxLength: LIMITS.maxNameLength, pattern: NAME_REGEXP, patternText: 'must not be empty, start or end with a space, or hold control characters' };
-
-export function readName(ck: Checker, obj: Json, path: string, what: string): string | undefined {
-  return readString(ck, required(ck, obj, path, 'name', `the ${what}'s name`, '"inlet"'), join(path, 'name'), `the ${what}'s name`, NAME_RULE);
-}
 
 export function readDuct(ck: Checker, value: Found, context: DuctContext): NormalisedDuct | undefined {
   const duct = readObject(ck, value, 'duct', 'the duct');

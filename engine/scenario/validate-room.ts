@@ -6,9 +6,8 @@ import { SNAP_TOLERANCE } from './box.ts';
 import { item, join, type Checker } from './checker.ts';
 import { LIMITS, WALL_KEYS, WALL_WORDS } from './fields.ts';
 import { MISSING, num, type Found } from './issues.ts';
-import { get, readArray, readNumber, readNumbers, readObject, required, type Json } from './reader.ts';
+import { get, readArray, readName, readNumber, readNumbers, readObject, required, type Json } from './reader.ts';
 import { readBoundary } from './validate-boundary.ts';
-import { readName } from './validate-duct.ts';
 import type { NormalisedRoom, ReceiverInput, RoomSourceInput, WallCondition, WallKey } from './types.ts';
 
 const AXES = ['x', 'y', 'z'];
