@@ -1,0 +1,130 @@
+/**
+ * quietgrid solve: the whole sweep (or a subset) of one scenario, in worker threads, to
+ * spectrum.csv, bands.csv and summary.json; optionally the fields as .vtu files.
+ */
+import { performance } from 'node:perf_hooks';
+import { prepareScenario, type PointResult, type Prepared } from '../engine/solve/scenario.ts';
+import { defaultWorkerCount, solveFrequencies, type PointFailure, type PoolOutcome } from '../engine/node/pool.ts';
+import {
+  EXIT_FAILED, EXIT_INTERRUPTED, EXIT_OK, UsageError, defaultOutDir, describeDefaults, describeWarnings, fieldWriter, hz, loadScenario,
+  megabytes, parseFrequencyList, parseOptions, parseWorkers, scenarioPath, writeReport, type Io, type Loaded,
+} from './common.ts';
+import { Progress } from './progress.ts';
+
+export const SOLVE_HELP = `Usage: quietgrid solve SCENARIO.json [options]
+
+Solves the scenario at every frequency of its sweep and writes
+  DIR/spectrum.csv   one row per frequency (TL, reflection, energy balance; or SPL per receiver)
+  DIR/bands.csv      band values (TL from the mean transmitted power; SPL as energy means),
+                     with a source power also the outlet sound power and its A-weighted level
+  DIR/summary.json   mesh, timings, cut-on frequencies, defaults used, warnings, failures, cautions
+Each file is written to a temporary name and renamed, so a file is either whole or absent.
+
+Options:
+  --out DIR            folder for the results (default results/<scenario file name>)
+  --frequencies LIST   solve only these frequencies, Hz, separated by commas (e.g. 125,250,500).
+                       Any positive frequencies are allowed, not only those of the sweep, but the
+                       mesh stays graded for the top of the scenario's own sweep, so results can be
+                       merged with other runs of the same scenario; frequencies above that top are
+                       refused (the mesh would be too coarse): raise the sweep in the scenario instead.
+  --fields DIR         also write the pressure field at each frequency as DIR/field-<f>Hz.vtu
+                       (VTK XML unstructured grid; absorbing layers left out)
+  --workers N          worker threads (default: the cores, as many as there are frequencies and
+                       as free memory allows); 1 solves in the main thread
+  --help               this text
+
+Progress goes to stderr: a bar when it is a terminal, one line per frequency otherwise.
+Ctrl-C stops the run and still writes the frequencies already solved.
+Exit status: 0 solved; 1 a frequency failed (the others are still written, the failures are
+listed in summary.json); 2 invalid input; 130 stopped by Ctrl-C.
+`;
+
+const OPTIONS = {
+  out: { type: 'string' },
+  frequencies: { type: 'string' },
+  fields: { type: 'string' },
+  workers: { type: 'string' },
+  help: { type: 'boolean' },
+} as const;
+
+export async function solveCommand(args: string[], io: Io): Promise<number> {
+  const { values, positionals } = parseOptions('solve', args, OPTIONS);
+  if (values.help) {
+    io.out(SOLVE_HELP);
+    return EXIT_OK;
+  }
+  const loaded = await loadScenario(scenarioPath('solve', positionals));
+  const frequencies = values.frequencies !== undefined ? parseFrequencyList(values.frequencies, loaded.scenario) : [...loaded.scenario.sweep.frequenciesHz];
+  const requestedWorkers = parseWorkers(values.workers);
+  const prepared = prepare(loaded);
+  describeRun(loaded, prepared, io);
+  const workers = requestedWorkers ?? defaultWorkerCount(frequencies.length, prepared.info.memoryEstimateBytes);
+  io.out(`Solving ${frequencies.length} frequenc${frequencies.length === 1 ? 'y' : 'ies'} (${hz(frequencies[0])}–${hz(frequencies[frequencies.length - 1])} Hz) ${Math.min(workers, frequencies.length) > 1 ? `in ${Math.min(workers, frequencies.length)} worker threads` : 'in the main thread'}`);
+  const start = performance.now();
+  const { outcome, fieldError } = await sweep(loaded, prepared, frequencies, workers, values.fields);
+  const dir = values.out ?? defaultOutDir(loaded.path);
+  const failures: PointFailure[] = [...outcome.failures, ...outcome.unsolved.map((f) => ({ frequencyHz: f, message: 'not solved: the run was stopped' }))];
+  const { files } = await writeReport(dir, { loaded, prepared, points: outcome.results, frequenciesHz: frequencies, failures, totalSeconds: (performance.now() - start) / 1000 });
+  io.out(`Wrote ${files.join(', ')}${values.fields !== undefined && !fieldError ? `, and the fields in ${values.fields}` : ''}`);
+  if (fieldError) io.err(`quietgrid: cannot write the field files: ${fieldError}`);
+  return fieldError ? Math.max(EXIT_FAILED, finalStatus(outcome, io)) : finalStatus(outcome, io);
+}
+
+function prepare(loaded: Loaded): Prepared {
+  try {
+    return prepareScenario(loaded.scenario);
+  } catch (e) {
+    // prepareScenario refuses what the engine cannot model yet, naming the field.
+    throw new UsageError(`${loaded.path}: cannot set up the problem: ${e instanceof Error ? e.message : String(e)}`);
+  }
+}
+
+function describeRun(loaded: Loaded, prepared: Prepared, io: Io): void {
+  const { scenario: s } = loaded, i = prepared.info;
+  io.out(`Scenario: ${s.title} (${s.kind})`);
+  io.out(`Mesh: order ${i.order}, ${i.elements} elements, ${i.dofs} dofs, ${i.layers} absorbing layers (${i.absorberKind}), graded for ${hz(i.topFrequencyHz)} Hz at ${i.pointsPerWavelength} points per wavelength`);
+  io.out(`Solver: ${i.nnz} matrix entries, ${i.factorNonzeros} factor entries, about ${megabytes(i.memoryEstimateBytes)} per frequency and worker`);
+  for (const line of [...describeDefaults(s), ...describeWarnings(loaded.warnings)]) io.out(line);
+}
+
+/** Runs the pool with progress on stderr, Ctrl-C as cancel, and fields written as they arrive. */
+async function sweep(loaded: Loaded, prepared: Prepared, frequencies: number[], workers: number, fieldsDir: string | undefined): Promise<{ outcome: PoolOutcome; fieldError?: string }> {
+  const progress = new Progress(frequencies.length, process.stderr, () => performance.now());
+  const writeField = fieldsDir !== undefined ? fieldWriter(fieldsDir, prepared) : undefined;
+  let fieldWrites: Promise<unknown> = Promise.resolve(), fieldError: string | undefined;
+  const onResult = (point: PointResult) => {
+    progress.solved(point);
+    if (!writeField) return;
+    // One field file at a time, and the field dropped once written: a sweep keeps no fields in memory.
+    fieldWrites = fieldWrites.then(() => writeField(point)).then(() => { point.field = undefined; }, (e: unknown) => {
+      point.field = undefined;
+      fieldError ??= e instanceof Error ? e.message : String(e);
+    });
+  };
+  const run = solveFrequencies(loaded.scenario, frequencies, {
+    workers, prepared, keepFields: writeField !== undefined, onResult, onFailure: (f) => progress.failed(f.frequencyHz, f.message),
+  });
+  const onInterrupt = () => run.cancel();
+  process.once('SIGINT', onInterrupt);
+  try {
+    const outcome = await run.done;
+    await fieldWrites;
+    return { outcome, fieldError };
+  } finally {
+    process.removeListener('SIGINT', onInterrupt);
+    progress.finish();
+  }
+}
+
+function finalStatus(outcome: PoolOutcome, io: Io): number {
+  if (outcome.cancelled) {
+    io.err(`Stopped: ${outcome.results.length} frequencies solved and written, ${outcome.unsolved.length} not solved.`);
+    return EXIT_INTERRUPTED;
+  }
+  if (outcome.failures.length > 0) {
+    for (const f of outcome.failures) io.err(`quietgrid: the solve failed at ${hz(f.frequencyHz)} Hz: ${f.message}`);
+    io.err(`${outcome.failures.length} of ${outcome.failures.length + outcome.results.length} frequencies failed; the others are written, the failures listed in summary.json.`);
+    return EXIT_FAILED;
+  }
+  return EXIT_OK;
+}

@@ -1,0 +1,219 @@
+/**
+ * Frequencies of one scenario solved side by side in worker threads. Every frequency is an
+ * independent problem on the same mesh, so each worker prepares the scenario once (mesh, pattern,
+ * analysis) and then takes frequencies from a shared queue one at a time: a slow frequency holds up
+ * only its own worker, and a worker that dies loses only the frequency it was on.
+ *
+ * With one worker, or one frequency, the work is done in this thread (no second copy of the mesh).
+ */
+import { Worker } from 'node:worker_threads';
+import { availableParallelism, freemem } from 'node:os';
+import { performance } from 'node:perf_hooks';
+import { setImmediate as yieldToEvents } from 'node:timers/promises';
+import type { NormalisedScenario } from '../scenario/index.ts';
+import { prepareScenario, solvePoint, type PointResult, type Prepared } from '../solve/scenario.ts';
+
+export interface PointFailure { frequencyHz: number; message: string }
+
+export interface PoolOptions {
+  /** Worker threads; default os.availableParallelism(). Never more than there are frequencies. */
+  workers?: number;
+  /** Keep each point's solved field (transferred from the worker, not copied). */
+  keepFields?: boolean;
+  /** Called as each frequency finishes, in the order they finish. */
+  onResult?: (point: PointResult) => void;
+  onFailure?: (failure: PointFailure) => void;
+  /** The scenario already prepared in this thread: reused when solving in-process. */
+  prepared?: Prepared;
+  /** Worker entry (a .mjs bootstrap); default ./worker.mjs beside this file. */
+  entry?: URL;
+}
+
+export interface PoolOutcome {
+  results: PointResult[];
+  failures: PointFailure[];
+  /** Frequencies not solved because the run was cancelled. */
+  unsolved: number[];
+  cancelled: boolean;
+  /** Worker threads used; 0 when solved in this thread. */
+  workers: number;
+}
+
+export interface PoolRun {
+  done: Promise<PoolOutcome>;
+  /** Stops the run: workers are terminated, finished results are kept. */
+  cancel(): void;
+}
+
+/** What a worker is started with (worker_threads workerData). */
+export interface WorkerSetup { scenario: NormalisedScenario; keepFields: boolean }
+export type ToWorker = { type: 'solve'; frequencyHz: number } | { type: 'stop' };
+export type FromWorker =
+  | { type: 'ready' }
+  | { type: 'result'; point: PointResult }
+  | { type: 'failure'; frequencyHz: number; message: string }
+  | { type: 'fatal'; message: string };
+
+const DEFAULT_ENTRY = new URL('./worker.mjs', import.meta.url);
+
+/**
+ * How many workers fit: at most the cores, the frequencies, and what free memory holds, taking each
+ * worker to need twice the factorisation's estimate (the matrix, mesh and vectors come on top).
+ */
+export function defaultWorkerCount(frequencies: number, memoryEstimateBytes: number): number {
+  const byMemory = Math.floor((0.8 * freemem()) / Math.max(1, 2 * memoryEstimateBytes));
+  return Math.max(1, Math.min(availableParallelism(), frequencies, byMemory));
+}
+
+export function solveFrequencies(scenario: NormalisedScenario, frequenciesHz: readonly number[], opts: PoolOptions = {}): PoolRun {
+  const workers = Math.min(opts.workers ?? availableParallelism(), frequenciesHz.length);
+  if (!(Number.isInteger(workers) && workers >= 0)) throw new RangeError(`workers must be a positive integer (got ${opts.workers})`);
+  return workers <= 1 ? inThisThread(scenario, frequenciesHz, opts) : new Pool(scenario, frequenciesHz, workers, opts).run();
+}
+
+function messageOf(e: unknown): string {
+  return e instanceof Error ? e.message : String(e);
+}
+
+function inThisThread(scenario: NormalisedScenario, frequenciesHz: readonly number[], opts: PoolOptions): PoolRun {
+  let cancelled = false;
+  const work = async (): Promise<PoolOutcome> => {
+    const out: PoolOutcome = { results: [], failures: [], unsolved: [], cancelled: false, workers: 0 };
+    const prepared = opts.prepared ?? prepareScenario(scenario);
+    for (let i = 0; i < frequenciesHz.length; i++) {
+      // Between frequencies, let signals and timers run so that a cancel can arrive.
+      await yieldToEvents();
+      if (cancelled) return { ...out, cancelled: true, unsolved: frequenciesHz.slice(i) };
+      const f = frequenciesHz[i];
+      try {
+        const point = solvePoint(prepared, f, () => performance.now(), opts.keepFields ?? false);
+        out.results.push(point);
+        opts.onResult?.(point);
+      } catch (e) {
+        const failure = { frequencyHz: f, message: messageOf(e) };
+        out.failures.push(failure);
+        opts.onFailure?.(failure);
+      }
+    }
+    return out;
+  };
+  return { done: work(), cancel: () => { cancelled = true; } };
+}
+
+interface Slot { current: number | null; stopping: boolean }
+
+class Pool {
+  private readonly queue: number[];
+  private readonly slots = new Map<Worker, Slot>();
+  private readonly results: PointResult[] = [];
+  private readonly failures: PointFailure[] = [];
+  private respawnsLeft: number;
+  private lastCrash = '';
+  private cancelled = false;
+  private finished = false;
+  private resolve: (o: PoolOutcome) => void = () => undefined;
+
+  constructor(private readonly scenario: NormalisedScenario, frequenciesHz: readonly number[], private readonly size: number, private readonly opts: PoolOptions) {
+    this.queue = [...frequenciesHz];
+    // A crash may be this machine's doing (memory): replace a dead worker, but not forever.
+    this.respawnsLeft = size;
+  }
+
+  run(): PoolRun {
+    const done = new Promise<PoolOutcome>((resolve) => { this.resolve = resolve; });
+    for (let i = 0; i < this.size; i++) this.spawn();
+    return { done, cancel: () => this.cancel() };
+  }
+
+  private spawn(): void {
+    const setup: WorkerSetup = { scenario: this.scenario, keepFields: this.opts.keepFields ?? false };
+    const w = new Worker(this.opts.entry ?? DEFAULT_ENTRY, { workerData: setup });
+    this.slots.set(w, { current: null, stopping: false });
+    w.on('message', (m: FromWorker) => this.receive(w, m));
+    w.on('error', (e) => this.crashed(w, messageOf(e)));
+    w.on('exit', (code) => this.exited(w, code));
+  }
+
+  private receive(w: Worker, m: FromWorker): void {
+    const slot = this.slots.get(w);
+    if (!slot || this.cancelled) return;
+    if (m.type === 'result') this.keep(m.point);
+    else if (m.type === 'failure') this.fail({ frequencyHz: m.frequencyHz, message: m.message });
+    else if (m.type === 'fatal') return this.fatal(w, m.message);
+    slot.current = null;
+    this.feed(w, slot);
+  }
+
+  private keep(point: PointResult): void {
+    this.results.push(point);
+    this.opts.onResult?.(point);
+  }
+
+  private fail(failure: PointFailure): void {
+    this.failures.push(failure);
+    this.opts.onFailure?.(failure);
+  }
+
+  private feed(w: Worker, slot: Slot): void {
+    const f = this.queue.shift();
+    if (f === undefined) {
+      slot.stopping = true;
+      w.postMessage({ type: 'stop' } satisfies ToWorker);
+      return;
+    }
+    slot.current = f;
+    w.postMessage({ type: 'solve', frequencyHz: f } satisfies ToWorker);
+  }
+
+  /** The scenario cannot be prepared: no worker will do better, so nothing left is solved. */
+  private fatal(w: Worker, message: string): void {
+    for (const f of this.queue.splice(0)) this.fail({ frequencyHz: f, message });
+    this.slots.get(w)!.stopping = true;
+    w.postMessage({ type: 'stop' } satisfies ToWorker);
+  }
+
+  private crashed(w: Worker, message: string): void {
+    const slot = this.slots.get(w);
+    if (!slot) return;
+    this.slots.delete(w);
+    this.lastCrash = message;
+    if (slot.current !== null) this.fail({ frequencyHz: slot.current, message: `the worker solving ${slot.current} Hz stopped: ${message}` });
+    if (this.queue.length > 0 && !this.cancelled) {
+      if (this.respawnsLeft-- > 0) this.spawn();
+      else if (this.slots.size === 0) this.failRest();
+    }
+    this.settleIfDone();
+  }
+
+  private exited(w: Worker, code: number): void {
+    const slot = this.slots.get(w);
+    if (!slot) return;
+    if (!slot.stopping) return this.crashed(w, `the worker thread exited with code ${code}`);
+    this.slots.delete(w);
+    this.settleIfDone();
+  }
+
+  private failRest(): void {
+    for (const f of this.queue.splice(0)) this.fail({ frequencyHz: f, message: `not solved: every worker stopped (last: ${this.lastCrash})` });
+  }
+
+  private cancel(): void {
+    if (this.cancelled || this.finished) return;
+    this.cancelled = true;
+    const inFlight = [...this.slots.values()].flatMap((s) => (s.current === null ? [] : [s.current]));
+    const unsolved = [...inFlight, ...this.queue.splice(0)].sort((a, b) => a - b);
+    const workers = [...this.slots.keys()];
+    this.slots.clear();
+    void Promise.all(workers.map((w) => w.terminate())).then(() => this.settle(unsolved));
+  }
+
+  private settleIfDone(): void {
+    if (!this.cancelled && this.slots.size === 0 && this.queue.length === 0) this.settle([]);
+  }
+
+  private settle(unsolved: number[]): void {
+    if (this.finished) return;
+    this.finished = true;
+    this.resolve({ results: this.results, failures: this.failures, unsolved, cancelled: this.cancelled, workers: this.size });
+  }
+}

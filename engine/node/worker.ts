@@ -1,0 +1,44 @@
+/**
+ * One worker thread of the pool (pool.ts): prepares the scenario once, then solves one frequency per
+ * 'solve' message and posts each result as soon as it is ready, the field's arrays transferred rather
+ * than copied. A failure at one frequency is reported and the worker goes on with the next.
+ */
+import { parentPort, workerData } from 'node:worker_threads';
+import { performance } from 'node:perf_hooks';
+import { prepareScenario, solvePoint, type Prepared } from '../solve/scenario.ts';
+import type { FromWorker, ToWorker, WorkerSetup } from './pool.ts';
+
+const port = parentPort!;
+const setup = workerData as WorkerSetup;
+const now = () => performance.now();
+
+function post(message: FromWorker, transfer: ArrayBuffer[] = []): void {
+  port.postMessage(message, transfer);
+}
+
+function messageOf(e: unknown): string {
+  return e instanceof Error ? e.message : String(e);
+}
+
+function solveOne(prepared: Prepared, frequencyHz: number): void {
+  try {
+    const point = solvePoint(prepared, frequencyHz, now, setup.keepFields);
+    const transfer = point.field ? [point.field.re.buffer as ArrayBuffer, point.field.im.buffer as ArrayBuffer] : [];
+    post({ type: 'result', point }, transfer);
+  } catch (e) {
+    post({ type: 'failure', frequencyHz, message: messageOf(e) });
+  }
+}
+
+let prepared: Prepared | undefined;
+try {
+  prepared = prepareScenario(setup.scenario);
+  post({ type: 'ready' });
+} catch (e) {
+  post({ type: 'fatal', message: messageOf(e) });
+}
+
+port.on('message', (message: ToWorker) => {
+  if (message.type === 'stop' || prepared === undefined) port.close();
+  else solveOne(prepared, message.frequencyHz);
+});
