@@ -87,7 +87,7 @@ export function systemAt(p: Prepared, frequencyHz: number): { A: ComplexCsr; b: 
 
 /** Results from a solution vector computed elsewhere (an external solver's answer to `systemAt`). */
 export function resultsFromSolution(p: Prepared, frequencyHz: number, u: ComplexVector): PointResult {
-  const stats = { factorSeconds: 0, solveSeconds: 0, perturbedPivots: 0, assembleSeconds: 0 };
+  const stats = { factorSeconds: 0, solveSeconds: 0, perturbedPivots: 0, assembleSeconds: 0, residual: NaN }; // solved elsewhere
   if (p.kind === 'duct') return { kind: 'duct', ...ductResults(p.duct, frequencyHz, u), stats };
   return { kind: 'room', frequencyHz, receivers: roomResults(p.room, frequencyHz, u), stats };
 }
