@@ -18,16 +18,25 @@ import { buildMesh, dofCoordinates, type Mesh } from '../grid/mesh.ts';
 import { assembleHelmholtz, symbolicAssembly, uniformMaterials, type AssemblyPattern, type Materials } from '../assembly/assemble.ts';
 import { layerStretches, type AbsorberKind, type AbsorptionRange } from '../assembly/layers.ts';
 import { addSplitLoad } from '../assembly/injection.ts';
+import { addSurfaceAdmittance, boundaryFaces } from '../assembly/boundary.ts';
 import { zeroVector, type ComplexCsr, type ComplexVector } from '../linalg/sparse.ts';
 import type { Symbolic } from '../linalg/index.ts';
 import { analyzeMesh, solveAt, type LinearStats } from './linear.ts';
 import { averagePower, cellSpan, samplePlane, type PlaneRect } from './planes.ts';
 
+/** An equivalent fluid filling a box: 1/ρ and 1/κ, complex for porous media (e^{+jωt}). */
+export interface Medium { rhoInv: { re: number; im: number }; kappaInv: { re: number; im: number } }
+
+export type DuctTermination = 'anechoic' | 'rigid' | { admittance: { re: number; im: number } }; // admittance 1/Z_s, m²·s/kg
+
 export interface DuctModel {
+  /** Air boxes; where boxes overlap the one listed first decides the cell's medium (list linings before their section). */
   boxes: AirBox[];
+  /** Per frequency, the medium of each box (null: the air). Absent: air everywhere. */
+  media?: (frequencyHz: number) => (Medium | null)[];
   openings: GridOpening[];
   inlet: { x: number; rect: PlaneRect; clearTo: number };
-  outlet: { x: number; rect: PlaneRect; clearFrom: number; termination: 'anechoic' | 'rigid' };
+  outlet: { x: number; rect: PlaneRect; clearFrom: number; termination: DuctTermination };
   soundSpeed: number;
   density: number;
   order: number;
@@ -46,6 +55,7 @@ export interface DuctPrepared {
   materials: Materials;
   xyz: Float64Array;
   onTotalSide: Uint8Array;
+  outletFaces: { element: number; side: '+x' }[]; // the closed outlet's faces when it has an impedance
   planes: { split: number; reflection: number; inletMics: [number, number]; outletMics: [number, number]; power: number };
 }
 
@@ -88,7 +98,22 @@ export function prepareDuct(model: DuctModel): DuctPrepared {
   const onTotalSide = new Uint8Array(mesh.numbering.ndofs);
   for (let i = 0; i < onTotalSide.length; i++) onTotalSide[i] = xyz[3 * i] >= planes.split - 1e-9 ? 1 : 0;
   const materials = uniformMaterials(mesh.elements.length, model.density, model.density * model.soundSpeed ** 2);
-  return { model, mesh, assembly, symbolic: analyzeMesh(mesh, assembly.pattern), materials, xyz, onTotalSide, planes };
+  if (model.media) {
+    // slot 0 is the air, slot 1 + i the medium of box i
+    for (let e = 0; e < mesh.elements.length; e++) materials.ofElement[e] = 1 + grid.box[mesh.elements[e]];
+  }
+  const r = outlet.rect, inRect = (_x: number, y: number, z: number) => y > r.y0 && y < r.y1 && z > r.z0 && z < r.z1;
+  const outletFaces = typeof outlet.termination === 'object' ? boundaryFaces(mesh, '+x', inRect).map((f) => ({ element: f.element, side: '+x' as const })) : [];
+  return { model, mesh, assembly, symbolic: analyzeMesh(mesh, assembly.pattern), materials, xyz, onTotalSide, outletFaces, planes };
+}
+
+/** The material table at one frequency: air in slot 0, each box's medium after it. */
+function materialsAt(prep: DuctPrepared, frequencyHz: number): Materials {
+  const { model } = prep;
+  if (!model.media) return prep.materials;
+  const air = { rhoInv: prep.materials.rhoInv[0], kappaInv: prep.materials.kappaInv[0] };
+  const media = model.media(frequencyHz).map((m) => m ?? air);
+  return { rhoInv: [air.rhoInv, ...media.map((m) => m.rhoInv)], kappaInv: [air.kappaInv, ...media.map((m) => m.kappaInv)], ofElement: prep.materials.ofElement };
 }
 
 function modeShape(rect: PlaneRect, m: number, n: number): (y: number, z: number) => number {
@@ -122,7 +147,11 @@ export function ductSystem(prep: DuctPrepared, frequencyHz: number): { A: Comple
   const { model, mesh } = prep, { inlet, outlet } = model;
   const omega = 2 * Math.PI * frequencyHz, k = omega / model.soundSpeed;
   const range = model.absorber.range ?? portRange(k, [inlet.rect, outlet.rect]);
-  const A = assembleHelmholtz(mesh, prep.assembly, omega, layerStretches(mesh.grid, k, { kind: model.absorber.kind, range }), prep.materials);
+  const A = assembleHelmholtz(mesh, prep.assembly, omega, layerStretches(mesh.grid, k, { kind: model.absorber.kind, range }), materialsAt(prep, frequencyHz));
+  if (typeof outlet.termination === 'object') {
+    const admittance = outlet.termination.admittance;
+    addSurfaceAdmittance(A, mesh, prep.assembly, omega, prep.outletFaces.map((f) => ({ ...f, admittance })));
+  }
   const [m, n] = model.incident.mode, psi = modeShape(inlet.rect, m, n), kx = modeWavenumber(k, inlet.rect, m, n);
   if (kx.im !== 0) throw new Error(`the incident mode (${m}, ${n}) does not propagate in the inlet at ${frequencyHz} Hz: choose a frequency above its cut-on or the plane wave [0, 0]`);
   const uInc = zeroVector(A.n), amp = model.incident.amplitude;
@@ -160,6 +189,7 @@ export function ductResults(prep: DuctPrepared, frequencyHz: number, u: ComplexV
   const reflectedPower = -averagePower(mesh, u, ...cellSpan(mesh, planes.reflection), inlet.rect, omega, rho);
   let transmittedPower = 0, tlIntensityDb: number | null = null, tlDecompositionDb: number | null = null;
   if (outlet.termination === 'anechoic') {
+    // the outlet run is air: a lining there would make the measured power depend on the plane
     transmittedPower = averagePower(mesh, u, ...cellSpan(mesh, planes.power), outlet.rect, omega, rho);
     tlIntensityDb = 10 * Math.log10(incidentPower / transmittedPower);
     if (m === 0 && n === 0 && belowCutOn(k, [inlet.rect, outlet.rect])) tlDecompositionDb = decompositionTl(prep, u, k, omega, sIn, sOut);

@@ -43,8 +43,8 @@ export function prepareScenario(s: NormalisedScenario): Prepared {
     maxFrequencyHz: top, absorber: { kind: s.absorber.kind, layers: s.absorber.layers, thickness: s.absorber.thickness ?? undefined },
   };
   if (s.kind === 'duct') {
-    const ports = geometry.duct!, term = ports.outlet.termination;
-    if (typeof term !== 'string') throw new Error('duct.outlet: absorbing or impedance terminations come with the linings work; use "anechoic" or "rigid" for now');
+    const ports = geometry.duct!, t = ports.outlet.termination, rhoC = s.air.density * s.air.soundSpeed;
+    const term = typeof t === 'string' ? t : { admittance: surfaceAdmittance(t, rhoC) };
     const rectOf = (r: { y0: number; y1: number; z0: number; z1: number }) => ({ y0: r.y0, y1: r.y1, z0: r.z0, z1: r.z1 });
     const duct = prepareDuct({
       ...common, boxes: geometry.boxes, openings: geometry.openings,
