@@ -38,9 +38,13 @@ export function parseOptions<O extends Options>(command: string, args: string[],
   try {
     return parseArgs({ args, options, allowPositionals: true, strict: true });
   } catch (e) {
-    const code = (e as { code?: string }).code, name = /'(-[^']*)'/.exec((e as Error).message)?.[1];
+    const code = (e as { code?: string }).code, name = /'(--?[\w-]+)/.exec((e as Error).message)?.[1];
     if (code === 'ERR_PARSE_ARGS_UNKNOWN_OPTION') throw new UsageError(`unknown option ${name ?? ''} for "quietgrid ${command}"; see quietgrid ${command} --help`);
-    if (code === 'ERR_PARSE_ARGS_INVALID_OPTION_VALUE') throw new UsageError(`${(e as Error).message.replace(/\.$/, '')}; see quietgrid ${command} --help`);
+    if (code === 'ERR_PARSE_ARGS_INVALID_OPTION_VALUE') {
+      const text = (e as Error).message;
+      const problem = /does not take/.test(text) ? 'takes no value' : /ambiguous/.test(text) ? `is followed by a value starting with "-"; write ${name}=VALUE if that is the value` : 'needs a value';
+      throw new UsageError(`option ${name ?? ''} ${problem}; see quietgrid ${command} --help`);
+    }
     if (code === 'ERR_PARSE_ARGS_UNEXPECTED_POSITIONAL') throw new UsageError(`unexpected argument; see quietgrid ${command} --help`);
     throw e;
   }
@@ -48,8 +52,8 @@ export function parseOptions<O extends Options>(command: string, args: string[],
 
 /** Exactly one positional argument: the scenario file. */
 export function scenarioPath(command: string, positionals: string[]): string {
-  if (positionals.length === 0) throw new UsageError(`quietgrid ${command} needs a scenario file, e.g. quietgrid ${command} scenarios/plant-room-supply-silencer.json`);
-  if (positionals.length > 1) throw new UsageError(`quietgrid ${command} takes one scenario file, got ${positionals.length}: ${positionals.join(' ')}`);
+  if (positionals.length === 0) throw new UsageError(`${command} needs a scenario file, e.g. quietgrid ${command} scenarios/plant-room-supply-silencer.json`);
+  if (positionals.length > 1) throw new UsageError(`${command} takes one scenario file, got ${positionals.length}: ${positionals.join(' ')}`);
   return positionals[0];
 }
 

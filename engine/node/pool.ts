@@ -137,11 +137,12 @@ class Pool {
   private receive(w: Worker, m: FromWorker): void {
     const slot = this.slots.get(w);
     if (!slot || this.cancelled) return;
+    if (m.type === 'fatal') return this.fatal(w, m.message);
+    // Free the slot before the callbacks: one of them may cancel, and this frequency is done.
+    slot.current = null;
     if (m.type === 'result') this.keep(m.point);
     else if (m.type === 'failure') this.fail({ frequencyHz: m.frequencyHz, message: m.message });
-    else if (m.type === 'fatal') return this.fatal(w, m.message);
-    slot.current = null;
-    this.feed(w, slot);
+    if (!this.cancelled) this.feed(w, slot);
   }
 
   private keep(point: PointResult): void {

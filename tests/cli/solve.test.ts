@@ -1,0 +1,133 @@
+// quietgrid solve on every scenario in scenarios/, a few frequencies each, read back as a user would.
+import { describe, expect, it, beforeAll, afterAll } from 'vitest';
+import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { readScenario, type NormalisedScenario } from '../../engine/scenario/index.ts';
+import { bandIndexOf } from '../../engine/acoustics/index.ts';
+import { parseCsv } from '../../engine/report/index.ts';
+import { ROOT, pickFrequencies, quietgrid, scenarioFiles } from './helpers.ts';
+
+let tmp: string;
+beforeAll(() => { tmp = mkdtempSync(join(tmpdir(), 'quietgrid-cli-')); });
+afterAll(() => rmSync(tmp, { recursive: true, force: true }));
+
+function load(file: string): NormalisedScenario {
+  return readScenario(readFileSync(join(ROOT, file), 'utf8')).scenario;
+}
+
+function readTable(path: string): { header: string[]; rows: string[][] } {
+  const [header, ...rows] = parseCsv(readFileSync(path, 'utf8'));
+  return { header, rows };
+}
+
+const DUCT_HEADER = ['frequency_hz', 'tl_db', 'tl_decomposition_db', 'inlet_reflection', 'inlet_absorption', 'energy_balance', 'method'];
+const BAND_HEADER = ['band_hz', 'band_low_hz', 'band_high_hz', 'bandwidth', 'points'];
+const SUMMARY_FIELDS = ['title', 'kind', 'dofs', 'nnz', 'order', 'layers', 'absorberKind', 'elements', 'factorNonzeros', 'memoryEstimateBytes', 'peakMemoryBytes',
+  'cutOnHz', 'timing', 'defaultsUsed', 'warnings', 'frequenciesHz', 'failures', 'cautions', 'conventions'];
+
+function column(t: { header: string[]; rows: string[][] }, name: string): string[] {
+  const i = t.header.indexOf(name);
+  expect(i, `column ${name}`).toBeGreaterThanOrEqual(0);
+  return t.rows.map((r) => r[i]);
+}
+
+function expectFinite(cells: string[], what: string): void {
+  for (const c of cells) expect(Number.isFinite(Number(c)) && c !== '', `${what} = "${c}"`).toBe(true);
+}
+
+function checkSpectrum(s: NormalisedScenario, dir: string, freqs: number[]): void {
+  const t = readTable(join(dir, 'spectrum.csv'));
+  expect(t.rows).toHaveLength(freqs.length);
+  expectFinite(column(t, 'frequency_hz'), 'frequency_hz');
+  column(t, 'frequency_hz').forEach((f, i) => expect(Number(f)).toBeCloseTo(freqs[i], 3));
+  if (s.kind === 'room') {
+    expect(t.header).toEqual(['frequency_hz', ...s.room.receivers.map((_, i) => t.header[i + 1])]);
+    for (const h of t.header.slice(1)) {
+      expect(h).toMatch(/^spl_db_[a-z0-9_]+$/);
+      expectFinite(column(t, h), h);
+    }
+    return;
+  }
+  expect(t.header).toEqual(DUCT_HEADER);
+  if (s.duct.outlet === 'rigid') return;
+  const tl = column(t, 'tl_db'), balance = column(t, 'energy_balance');
+  expectFinite(tl, 'tl_db');
+  expectFinite(balance, 'energy_balance');
+  expectFinite(column(t, 'inlet_reflection'), 'inlet_reflection');
+  // common practice: a passive silencer without flow cannot amplify (TL ≥ 0); 0.5 dB allows for discretisation
+  for (const v of tl) expect(Number(v)).toBeGreaterThanOrEqual(-0.5);
+  // common practice: incident power = reflected + transmitted for a lossless duct (energy conservation)
+  for (const v of balance) expect(Number(v)).toBeLessThan(1e-2);
+}
+
+function checkBands(s: NormalisedScenario, dir: string, freqs: number[]): void {
+  const t = readTable(join(dir, 'bands.csv'));
+  expect(t.header.slice(0, BAND_HEADER.length)).toEqual(BAND_HEADER);
+  const fraction = s.sweep.spacing === 'octave' ? 1 : 3, name = fraction === 1 ? 'octave' : 'third-octave';
+  const own = t.rows.filter((r) => r[3] === name);
+  expect(own).toHaveLength(new Set(freqs.map((f) => bandIndexOf(f, fraction))).size);
+  expect(own.reduce((n, r) => n + Number(r[4]), 0)).toBe(freqs.length);
+  for (const r of own) expectFinite(r.slice(0, 3).concat(r.slice(4, 6)), 'band cell');
+  if (s.kind === 'duct' && s.sourcePower) {
+    expect(t.header.slice(-3)).toEqual(['source_lw_db', 'outlet_lw_db', 'outlet_lwa_db']);
+    const octaves = t.rows.filter((r) => r[3] === 'octave');
+    for (const b of s.sourcePower.octaveBands) expect(octaves.some((r) => Number(r[0]) === b.nominalHz)).toBe(true);
+  }
+}
+
+function checkSummary(s: NormalisedScenario, dir: string, freqs: number[]): void {
+  const summary = JSON.parse(readFileSync(join(dir, 'summary.json'), 'utf8'));
+  for (const key of SUMMARY_FIELDS) expect(summary, key).toHaveProperty(key);
+  expect(summary.kind).toBe(s.kind);
+  expect(summary.dofs).toBeGreaterThan(0);
+  expect(summary.frequenciesHz).toEqual(freqs);
+  expect(summary.failures).toEqual([]);
+  expect(summary.timing.total_s).toBeGreaterThan(0);
+  expect(summary.conventions).toMatch(/e\^\{\+jωt\}/);
+  expect(summary.cautions.length).toBeGreaterThan(0);
+  if (s.kind === 'duct') expect(summary.cutOnHz.map((c: { section: string }) => c.section)).toEqual(expect.arrayContaining(s.duct.sections.map((x) => x.name)));
+}
+
+describe.each(scenarioFiles())('quietgrid solve %s', (file) => {
+  it('writes spectrum.csv, bands.csv and summary.json that read back', async () => {
+    const s = load(file), freqs = pickFrequencies(s.sweep.frequenciesHz), dir = join(tmp, file.replace(/\W/g, '_'));
+    const run = await quietgrid('solve', file, '--out', dir, '--frequencies', freqs.join(','));
+    expect(run.stderr).not.toMatch(/FAILED/);
+    expect(run.code, run.stderr).toBe(0);
+    expect(run.stdout).toMatch(/Mesh: order \d+, \d+ elements, \d+ dofs, \d+ absorbing layers/);
+    expect(run.stdout).toMatch(/Defaults used/);
+    checkSpectrum(s, dir, freqs);
+    checkBands(s, dir, freqs);
+    checkSummary(s, dir, freqs);
+  });
+});
+
+describe('quietgrid solve, workers', () => {
+  it('gives the same numbers from worker threads as from the main thread', async () => {
+    const file = 'scenarios/kitchen-extract-stub-resonator.json', freqs = pickFrequencies(load(file).sweep.frequenciesHz).join(',');
+    const a = await quietgrid('solve', file, '--out', join(tmp, 'w1'), '--frequencies', freqs, '--workers', '1');
+    const b = await quietgrid('solve', file, '--out', join(tmp, 'w2'), '--frequencies', freqs, '--workers', '2');
+    expect([a.code, b.code]).toEqual([0, 0]);
+    expect(a.stdout).toMatch(/in the main thread/);
+    expect(b.stdout).toMatch(/in 2 worker threads/);
+    expect(readFileSync(join(tmp, 'w2', 'spectrum.csv'), 'utf8')).toBe(readFileSync(join(tmp, 'w1', 'spectrum.csv'), 'utf8'));
+  });
+
+  it('prints one progress line per frequency when stderr is not a terminal', async () => {
+    const run = await quietgrid('solve', 'scenarios/kitchen-extract-stub-resonator.json', '--out', join(tmp, 'p'), '--frequencies', '200,400');
+    expect(run.code).toBe(0);
+    const lines = run.stderr.trim().split('\n');
+    expect(lines).toHaveLength(2);
+    expect(lines[1]).toMatch(/^\[2\/2\] 400 Hz: TL -?\d+\.\d\d dB \(elapsed \d+:\d\d, left ~\d+:\d\d\)$/);
+  });
+
+  it('writes the fields as .vtu files with --fields', async () => {
+    const dir = join(tmp, 'fields');
+    const run = await quietgrid('solve', 'scenarios/kitchen-extract-stub-resonator.json', '--out', join(tmp, 'f'), '--frequencies', '250', '--fields', dir);
+    expect(run.code, run.stderr).toBe(0);
+    const vtu = readFileSync(join(dir, 'field-250Hz.vtu'), 'utf8');
+    expect(vtu).toMatch(/^<\?xml version="1.0"\?>\n<VTKFile type="UnstructuredGrid"/);
+    for (const name of ['pressure_abs_pa', 'spl_db', 'pressure_re_pa', 'pressure_im_pa']) expect(vtu).toContain(`Name="${name}"`);
+  });
+});
