@@ -59,7 +59,7 @@ describe('valid scenarios', () => {
     const { scenario } = valid({ format: 'quietgrid/1', sweep: { frequenciesHz: [100] }, duct: { sections: [{ name: 'a', length: 1, width: 0.1, height: 0.1 }] } });
     expect(scenario.title).toBe('Untitled scenario');
     expect(scenario.air.temperatureC).toBe(20);
-    expect(scenario.mesh).toEqual({ order: 4, pointsPerWavelength: 6 });
+    expect(scenario.mesh).toEqual({ order: 4, pointsPerWavelength: 8 });
     expect(scenario.defaultsUsed.find((d) => d.path === 'mesh.order')).toMatchObject({ value: 4 });
   });
 
