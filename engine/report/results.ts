@@ -169,7 +169,8 @@ function receiverColumns(s: ReportScenario): ReceiverColumn[] {
 
 /** A name as a header fragment: lower case ASCII letters, digits and single underscores. */
 export function sanitiseName(name: string): string {
-  const s = name.normalize('NFKD').toLowerCase().replace(/[^a-z0-9]+/g, '_').replace(/^_+|_+$/g, '');
+  // NFKD splits accented letters into letter + combining mark; dropping the marks keeps "é" as "e".
+  const s = name.normalize('NFKD').replace(/[\u0300-\u036f]/g, '').toLowerCase().replace(/[^a-z0-9]+/g, '_').replace(/^_+|_+$/g, '');
   return s === '' ? 'unnamed' : s;
 }
 

@@ -10,7 +10,7 @@ let tmp: string;
 beforeAll(() => { tmp = mkdtempSync(join(tmpdir(), 'quietgrid-err-')); });
 afterAll(() => rmSync(tmp, { recursive: true, force: true }));
 
-function variant(name: string, edit: (s: Record<string, any>) => void): string {
+function variant(name: string, edit: (s: { duct: { sections: { length: number }[] } }) => void): string {
   const s = JSON.parse(readFileSync(join(ROOT, PLANT), 'utf8'));
   edit(s);
   const path = join(tmp, name);
