@@ -1,5 +1,5 @@
 // Public API of the acoustics layer: pure functions of air, bands, weightings,
-// band aggregation, duct modes and plane-wave theory.
+// band aggregation, duct modes, plane-wave theory, porous linings and their materials.
 export * from './air.ts';
 export * from './bands.ts';
 export * from './sweep.ts';
@@ -11,3 +11,5 @@ export type { Complex } from './complex.ts';
 export * from './fourpole.ts';
 export * from './planewave.ts';
 export * from './planewaveClosedForms.ts';
+export * from './porous.ts';
+export * from './materials.ts';
