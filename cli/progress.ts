@@ -45,7 +45,7 @@ export class Progress {
     const filled = Math.round((BAR_WIDTH * this.done) / this.total);
     const line = `[${'#'.repeat(filled)}${'-'.repeat(BAR_WIDTH - filled)}] ${this.done}/${this.total} frequencies, ${times}  ${what}`;
     // \r back to the line's start, ESC[K to clear what a longer previous line left.
-    this.stream.write(`\r${line.slice(0, Math.max(20, (this.stream.columns ?? 100) - 1))}\x1b[K`);
+    this.stream.write(`\r${line.slice(0, Math.max(40, (this.stream.columns || 100) - 1))}\x1b[K`);
     this.drawn = true;
   }
 }

@@ -93,3 +93,23 @@ describe('quietgrid validate and help', () => {
     expect((await quietgrid('solve', '--help')).stdout).toMatch(/graded for the top of the scenario's own sweep/);
   });
 });
+
+describe('quietgrid solve, a frequency that fails', () => {
+  it('exits 1 naming the frequency, and still writes the frequencies that finished', async () => {
+    // A (1, 0) mode sent into a 0.5 m wide inlet carries nothing below its cut-on, 343 Hz: 200 Hz cannot be solved, 450 Hz can.
+    const path = join(tmp, 'cross-mode.json'), dir = join(tmp, 'cross-mode');
+    writeFileSync(path, JSON.stringify({
+      format: 'quietgrid/1', sweep: { frequenciesHz: [200, 450] }, mesh: { order: 3, pointsPerWavelength: 5 },
+      duct: { sections: [{ name: 'a', length: 0.3, width: 0.5, height: 0.1 }, { name: 'b', length: 0.3, width: 0.5, height: 0.1 }], incident: { mode: [1, 0] } },
+    }));
+    const run = await quietgrid('solve', path, '--out', dir);
+    expect(run.code).toBe(1);
+    expect(run.stderr).toMatch(/the solve failed at 200 Hz: .*does not propagate/);
+    const rows = readFileSync(join(dir, 'spectrum.csv'), 'utf8').trim().split('\r\n');
+    expect(rows).toHaveLength(2);
+    expect(rows[1]).toMatch(/^450,/);
+    const summary = JSON.parse(readFileSync(join(dir, 'summary.json'), 'utf8'));
+    expect(summary.failures.map((f: { frequencyHz: number }) => f.frequencyHz)).toEqual([200]);
+    expect(summary.frequenciesHz).toEqual([200, 450]);
+  });
+});
