@@ -112,10 +112,20 @@ export function chooseLengths(p: number, layers: number, range: AbsorptionRange 
   if (table && range.evanescent) seeds.unshift(table.map(([re, im]) => ({ re, im: -im })));
   const toVec = (ls: Complex[]) => ls.flatMap((l) => [l.re, l.im]);
   const toLengths = (v: number[]) => Array.from({ length: layers }, (_, j) => ({ re: v[2 * j], im: v[2 * j + 1] }));
-  const cost = (v: number[]) => Math.log10(worstReflection(p, toLengths(v), range) + 1e-300);
+  // a coarse sample set drives the search (12 per branch reach the same optimum as 48 at a fifth of the cost)
+  const coarse = samples(range, 12);
+  const cost = (v: number[]) => {
+    const ls = toLengths(v);
+    let worst = 0;
+    for (const q of coarse) {
+      const R = padeReflection(p, ls, q);
+      worst = Math.max(worst, Math.hypot(R.re, R.im));
+    }
+    return Math.log10(worst + 1e-300);
+  };
   let best = toVec(seeds[0]), bestCost = cost(best);
   for (const s of seeds) {
-    const r = nelderMead(cost, toVec(s), 1500);
+    const r = nelderMead(cost, toVec(s), 600);
     if (r.f < bestCost) { best = r.x; bestCost = r.f; }
   }
   const out = toLengths(best);

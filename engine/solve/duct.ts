@@ -136,7 +136,8 @@ export function portRange(k: number, rects: PlaneRect[]): AbsorptionRange {
     if (kx.im === 0) minProp = Math.min(minProp, kx.re / k);
     else minEv = Math.min(minEv, -kx.im / k);
   }
-  const q = (v: number) => Math.round(v * 20) / 20; // coarse steps so the chosen lengths are reused
+  // geometric steps of 10 % so that neighbouring frequencies share one choice of lengths
+  const q = (v: number) => Math.pow(1.1, Math.round(Math.log(v) / Math.log(1.1)));
   const propagating: [number, number] = [Math.max(0.1, q(Math.min(minProp, 0.9))), 1];
   const evanescent: [number, number] = [Math.max(0.1, q(Math.min(minEv, 5))), Math.max(5, q(Math.min(1.5 * minEv, 40)))];
   return { propagating, evanescent };
