@@ -54,7 +54,8 @@ function uniqueSorted(values: number[]): number[] {
   return out;
 }
 
-function subdivide(breaks: number[], hmax: number): number[] {
+/** The element boundaries of an axis: every breakpoint kept, each interval split into equal elements no longer than hmax. */
+export function subdivide(breaks: number[], hmax: number): number[] {
   const nodes = [breaks[0]];
   for (let i = 1; i < breaks.length; i++) {
     const a = breaks[i - 1], len = breaks[i] - a, m = Math.max(1, Math.ceil(len / hmax - 1e-9));
