@@ -1,0 +1,12 @@
+/** Sparse direct solver for complex symmetric systems: analyse once per pattern, factor per frequency. */
+export { analyze, type Symbolic } from './symbolic.ts';
+export { factor, DEFAULT_PIVOT_TOLERANCE, type Numeric, type FactorOptions, type WorstPivot } from './factor.ts';
+export { solve, solveRefined, solveMany, REFINED_RESIDUAL_LIMIT } from './solve.ts';
+export { minimumDegree } from './ordering.ts';
+export { latticeDissection, type NodeLattice, type DissectionOptions } from './dissection.ts';
+export { eliminationTree, postorder } from './etree.ts';
+export { columnCounts } from './colCounts.ts';
+export { assertPermutation, invertPermutation, identityPermutation } from './permutation.ts';
+export { SingularSystemError, NonFiniteMatrixError, type PivotLocation } from './errors.ts';
+export { readMatrixMarket, readMatrixMarketVector, writeMatrixMarket, writeMatrixMarketVector } from './matrixMarket.ts';
+export * from './sparse.ts';
