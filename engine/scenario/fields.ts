@@ -3,6 +3,7 @@
  * the limits. The validator reads its unknown-field lists from here, and the schema test walks
  * scenarios/schema.json against `SCENARIO_FIELDS`, so the file and the code cannot drift apart.
  */
+import { LINING_MATERIAL_IDS, POROUS_MODELS } from '../acoustics/index.ts';
 import type { AbsorberKind, BranchEnd, BranchSide, LiningModel, Side, Spacing, WallKey } from './types.ts';
 
 export const READABLE_FORMATS: readonly string[] = ['quietgrid/1'];
@@ -13,7 +14,9 @@ export const WALL_KEYS: readonly WallKey[] = ['x-', 'x+', 'y-', 'y+', 'z-', 'z+'
 export const SPACINGS: readonly Spacing[] = ['octave', 'third-octave', 'linear', 'log'];
 export const BAND_SPACINGS: readonly Spacing[] = ['octave', 'third-octave'];
 export const ABSORBER_KINDS: readonly AbsorberKind[] = ['discrete', 'constant', 'smooth'];
-export const LINING_MODELS: readonly LiningModel[] = ['delany-bazley', 'miki'];
+export const LINING_MODELS: readonly LiningModel[] = POROUS_MODELS;
+/** Entries of the lining-material library a scenario may name. */
+export const LINING_LIBRARY: readonly string[] = LINING_MATERIAL_IDS;
 export const BRANCH_ENDS: readonly BranchEnd[] = ['closed', 'open'];
 export const TERMINATION_WORDS: readonly string[] = ['anechoic', 'rigid'];
 export const WALL_WORDS: readonly string[] = ['rigid', 'open'];
@@ -79,7 +82,7 @@ export const SCENARIO_FIELDS: Readonly<Record<string, readonly string[]>> = {
   sourcePower: ['octaveBandsDb'],
   'sourcePower.octaveBandsDb': [...OCTAVE_BAND_KEYS],
   'linings[]': ['section', 'faces', 'thickness', 'material'],
-  'linings[].material': ['model', 'flowResistivity'],
+  'linings[].material': ['model', 'flowResistivity', 'library'],
 };
 
 /** The enumerations of the format by path pattern, as the validator reads them (the schema test compares). */
@@ -93,6 +96,7 @@ export const SCENARIO_ENUMS: Readonly<Record<string, readonly string[]>> = {
   ...Object.fromEntries(WALL_KEYS.map((key) => [`room.walls.${key}`, WALL_WORDS])),
   'linings[].faces[]': SIDES,
   'linings[].material.model': LINING_MODELS,
+  'linings[].material.library': LINING_LIBRARY,
 };
 
 /** The field list for a concrete path such as "duct.sections[2]". */

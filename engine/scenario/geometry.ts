@@ -3,12 +3,19 @@
  * continues anechoically (where absorbing layers attach), the sorted coordinates of every box face
  * (grid lines must pass through them), and the ports of a duct or the layout of a room.
  * All coordinates pass through one snap per axis, so faces meant to coincide are equal numbers.
+ *
+ * Linings are boxes too, listed before the sections (where boxes overlap the first listed decides the
+ * medium): each lined face a slab (lining-layout.ts), cut finer where the material's wavelength is
+ * shorter than the air's at the mesh's density (lining-slices.ts). So the boxes depend on the mesh
+ * settings and the sweep as well as on the duct.
  */
 import { boundingBox, type Box } from './box.ts';
 import { layOutBranch, layOutSections } from './duct-layout.ts';
+import { layOutLinings, type LiningSlab } from './lining-layout.ts';
+import { airElementSize, liningCuts, liningElementSize, sliceBox } from './lining-slices.ts';
 import { snapper, uniqueSorted } from './snap.ts';
 import type {
-  BranchEnd, BranchSide, NormalisedDuctScenario, NormalisedRoomScenario, NormalisedScenario, ReceiverInput, RoomSourceInput,
+  BranchEnd, BranchSide, LiningModel, NormalisedDuctScenario, NormalisedRoomScenario, NormalisedScenario, ReceiverInput, RoomSourceInput,
   Side, Termination, WallCondition, WallKey,
 } from './types.ts';
 import { WALL_KEYS } from './fields.ts';
@@ -27,9 +34,13 @@ export interface SectionLayout extends CrossSection { name: string; x0: number; 
 export interface BranchLayout { name: string; section: string; side: BranchSide; end: BranchEnd; box: Box }
 
 export interface DuctPorts {
-  /** x up to which the inlet section is a straight uniform duct: the first branch edge, or the section end. */
+  /** x up to which the inlet section is a straight uniform unlined duct: the first branch edge or lining, or the section end. */
   inlet: { x: number; rect: CrossSection; clearTo: number };
-  /** x from which the outlet section is a straight uniform duct: the last branch edge, or the section start. */
+  /**
+   * x from which the outlet section is a straight uniform duct: the last branch edge, or the section start;
+   * with an anechoic outlet also past any lining. A closed outlet measures nothing there, and the
+   * validator lets its section be lined: linings then do not move clearFrom.
+   */
   outlet: { x: number; rect: CrossSection; clearFrom: number; termination: Termination };
   sections: SectionLayout[];
   branches: BranchLayout[];
@@ -42,9 +53,30 @@ export interface RoomLayout {
   receivers: ReceiverInput[];
 }
 
+/** One lined face of one section, and the boxes of `Geometry.boxes` that hold its material. */
+export interface LiningLayout {
+  /** Index into the scenario's `linings`. */
+  lining: number;
+  section: string;
+  face: Side;
+  /** "lining:<section>:<face>", also the tag of its boxes. */
+  tag: string;
+  thickness: number;
+  model: LiningModel;
+  flowResistivity: number;
+  library: string | null;
+  boxes: number[];
+  /** The slab's bounding box. */
+  region: Box;
+  /** Largest element edge the material calls for at the mesh's density, m; null when the air's grading is already finer. */
+  elementSize: number | null;
+}
+
 export interface Geometry {
   kind: 'duct' | 'room';
   boxes: Box[];
+  /** The lined faces; empty for a room and for an unlined duct. */
+  linings: LiningLayout[];
   bounds: Box;
   openings: Opening[];
   /** Sorted unique coordinates of every box face, per axis. */
@@ -98,24 +130,52 @@ function ductGeometry(scenario: NormalisedDuctScenario): Geometry {
     const i = sections.findIndex((s) => s.name === b.section);
     return layOutBranch(b, sections[i], rawSections[i]);
   });
-  const snap = snapsFor([...rawSections, ...rawBranches]);
+  const laid = layOutLinings({ sections, sectionBoxes: rawSections, branches: branches.map((b, i) => ({ name: b.name, section: b.section, box: rawBranches[i] })), outlet }, scenario.linings);
+  if (laid.problems.length > 0) throw new Error(`buildGeometry: ${laid.problems[0].statement} (validate the scenario first)`);
+  const snap = snapsFor([...rawSections, ...rawBranches, ...laid.slabs.flatMap((l) => l.pieces)]);
   const sectionBoxes = rawSections.map((b) => snapBox(b, snap));
   const branchBoxes = rawBranches.map((b) => snapBox(b, snap));
-  const boxes = [...sectionBoxes, ...branchBoxes];
+  const slabs = laid.slabs.map((l) => ({ ...l, pieces: l.pieces.map((b) => snapBox(b, snap)) }));
+  const linings = liningBoxes(scenario, slabs, [...sectionBoxes, ...branchBoxes]);
+  const boxes = [...linings.boxes, ...sectionBoxes, ...branchBoxes];
   const first = sectionBoxes[0], last = sectionBoxes[sectionBoxes.length - 1];
+  const linedBoxes = (section: string) => linings.layouts.filter((l) => l.section === section).map((l) => l.region);
   const openings: Opening[] = [{ side: '-x', rect: faceRect(first, '-x'), name: 'inlet' }];
   if (outlet === 'anechoic') openings.push({ side: '+x', rect: faceRect(last, '+x'), name: 'outlet' });
   branches.forEach((b, i) => {
     if (b.end === 'open') openings.push({ side: b.side, rect: faceRect(branchBoxes[i], b.side), name: b.name });
   });
   const onSection = (name: string) => branchBoxes.filter((_, i) => branches[i].section === name);
+  const outletLined = outlet === 'anechoic' ? linedBoxes(last.tag) : [];
   const duct: DuctPorts = {
-    inlet: { x: first.x0, rect: crossSection(first), clearTo: Math.min(first.x1, ...onSection(first.tag).map((b) => b.x0)) },
-    outlet: { x: last.x1, rect: crossSection(last), clearFrom: Math.max(last.x0, ...onSection(last.tag).map((b) => b.x1)), termination: outlet },
+    inlet: { x: first.x0, rect: crossSection(first), clearTo: Math.min(first.x1, ...[...onSection(first.tag), ...linedBoxes(first.tag)].map((b) => b.x0)) },
+    outlet: { x: last.x1, rect: crossSection(last), clearFrom: Math.max(last.x0, ...[...onSection(last.tag), ...outletLined].map((b) => b.x1)), termination: outlet },
     sections: sectionBoxes.map((b) => ({ name: b.tag, x0: b.x0, x1: b.x1, width: b.y1 - b.y0, height: b.z1 - b.z0, ...crossSection(b) })),
     branches: branches.map((b, i) => ({ name: b.name, section: b.section, side: b.side, end: b.end, box: branchBoxes[i] })),
   };
-  return { kind: 'duct', boxes, bounds: boundingBox(boxes, 'bounds'), openings, breakpoints: breakpointsOf(boxes), duct };
+  return { kind: 'duct', boxes, linings: linings.layouts, bounds: boundingBox(boxes, 'bounds'), openings, breakpoints: breakpointsOf(boxes), duct };
+}
+
+/** The lining slabs as boxes, cut where the material needs finer elements than the air, with their layouts. */
+function liningBoxes(scenario: NormalisedDuctScenario, slabs: LiningSlab[], others: Box[]): { boxes: Box[]; layouts: LiningLayout[] } {
+  const rule = { order: scenario.mesh.order, pointsPerWavelength: scenario.mesh.pointsPerWavelength, frequenciesHz: scenario.sweep.frequenciesHz };
+  const airSize = airElementSize(rule, scenario.air.soundSpeed);
+  const sized = slabs.map((slab) => {
+    const m = scenario.linings[slab.lining].material, size = liningElementSize(rule, m.model, m.flowResistivity, scenario.air);
+    return { slab, size, material: m };
+  });
+  const cuts = liningCuts(sized.flatMap((s) => s.slab.pieces.map((box) => ({ box, size: s.size }))), breakpointsOf([...others, ...slabs.flatMap((s) => s.pieces)]), airSize);
+  const boxes: Box[] = [];
+  const layouts = sized.map(({ slab, size, material }): LiningLayout => {
+    const start = boxes.length;
+    for (const piece of slab.pieces) boxes.push(...sliceBox(piece, cuts));
+    const section = scenario.duct.sections[slab.section].name, tag = slab.pieces[0].tag;
+    return {
+      lining: slab.lining, section, face: slab.face, tag, thickness: slab.thickness, model: material.model, flowResistivity: material.flowResistivity,
+      library: material.library, boxes: boxes.map((_, i) => i).slice(start), region: boundingBox(slab.pieces, tag), elementSize: size < airSize ? size : null,
+    };
+  });
+  return { boxes, layouts };
 }
 
 /** Room walls are keyed "x-" in the file; openings use the outward normal "-x". */
@@ -130,6 +190,7 @@ function roomGeometry(scenario: NormalisedRoomScenario): Geometry {
   return {
     kind: 'room',
     boxes: [room],
+    linings: [],
     bounds: { ...room, tag: 'bounds' },
     openings,
     breakpoints: breakpointsOf([room]),

@@ -3,7 +3,7 @@
  * the engine reads (`NormalisedScenario`, every default filled in and listed in `defaultsUsed`).
  * scenarios/schema.json documents the same format field by field; tests keep the two in step.
  */
-import type { Band } from '../acoustics/index.ts';
+import type { Band, PorousModel } from '../acoustics/index.ts';
 
 export const SCENARIO_FORMAT = 'quietgrid/1';
 
@@ -26,7 +26,7 @@ export type WallCondition = 'rigid' | 'open' | AbsorptionBoundary | ImpedanceBou
 
 export type Spacing = 'octave' | 'third-octave' | 'linear' | 'log';
 export type AbsorberKind = 'discrete' | 'constant' | 'smooth';
-export type LiningModel = 'delany-bazley' | 'miki';
+export type LiningModel = PorousModel;
 export type BranchEnd = 'closed' | 'open';
 
 /** A problem found in a scenario: where, what value, which rule, how to fix it, and all of it in one sentence. */
@@ -103,11 +103,16 @@ export interface RoomInput {
 /** Keys are nominal octave centres as strings: "31.5", "63", … "8000". */
 export interface SourcePowerInput { octaveBandsDb: Record<string, number> }
 
+/** A lining material: a model with its flow resistivity, or an entry of the material library (engine/acoustics/materials.ts). */
+export type LiningMaterialInput =
+  | { model: LiningModel; flowResistivity: number }
+  | { model?: LiningModel; library: string };
+
 export interface LiningInput {
   section: string;
   faces: Side[];
   thickness: number;
-  material: { model: LiningModel; flowResistivity: number };
+  material: LiningMaterialInput;
 }
 
 export interface ScenarioInput {
@@ -181,7 +186,15 @@ export interface SourcePowerBand {
 /** Ascending in frequency. */
 export interface NormalisedSourcePower { octaveBands: SourcePowerBand[] }
 
-export type NormalisedLining = LiningInput;
+/** library: the library entry the flow resistivity came from, or null when the file gave σ itself. */
+export interface NormalisedLiningMaterial { model: LiningModel; flowResistivity: number; library: string | null }
+
+export interface NormalisedLining {
+  section: string;
+  faces: Side[];
+  thickness: number;
+  material: NormalisedLiningMaterial;
+}
 
 interface NormalisedCommon {
   format: typeof SCENARIO_FORMAT;

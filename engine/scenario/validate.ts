@@ -9,7 +9,8 @@ import { LIMITS, READABLE_FORMATS } from './fields.ts';
 import { MISSING } from './issues.ts';
 import { get, isObject, readString, reportUnknownFields, type Json } from './reader.ts';
 import { readDuct } from './validate-duct.ts';
-import { readLinings, readSourcePower } from './validate-extras.ts';
+import { readSourcePower } from './validate-extras.ts';
+import { readLinings } from './validate-linings.ts';
 import { readRoom } from './validate-room.ts';
 import { readAbsorber, readAir, readMesh } from './validate-settings.ts';
 import { readSweep } from './validate-sweep.ts';
@@ -68,7 +69,7 @@ function readScenario(ck: Checker, root: Json): NormalisedScenario | undefined {
   const context = { sweepTopHz: top, sweepBottomHz: sweep?.frequenciesHz[0], soundSpeed: air?.soundSpeed };
   const duct = kind === 'duct' ? readDuct(ck, root.duct, context) : undefined;
   const room = kind === 'room' ? readRoom(ck, root.room) : undefined;
-  const linings = kind === 'room' ? refuseRoomLinings(ck, root) : readLinings(ck, get(root, 'linings'), duct?.sections);
+  const linings = kind === 'room' ? refuseRoomLinings(ck, root) : readLinings(ck, get(root, 'linings'), { duct, sweep, air });
   const rawPower = get(root, 'sourcePower');
   const sourcePower = rawPower === MISSING ? undefined : readSourcePower(ck, rawPower, sweep);
   if (title === undefined || notes === undefined || air === undefined || sweep === undefined || mesh === undefined || absorber === undefined

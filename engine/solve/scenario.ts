@@ -6,6 +6,7 @@
  */
 import type { NormalisedScenario } from '../scenario/types.ts';
 import { buildGeometry, type Geometry } from '../scenario/geometry.ts';
+import { liningMedia } from '../scenario/linings.ts';
 import { cutOnFrequencies, type DuctMode } from '../acoustics/index.ts';
 import type { ComplexCsr, ComplexVector } from '../linalg/sparse.ts';
 import type { Side } from '../grid/grid.ts';
@@ -47,7 +48,7 @@ export function prepareScenario(s: NormalisedScenario): Prepared {
     const term = typeof t === 'string' ? t : { admittance: surfaceAdmittance(t, rhoC) };
     const rectOf = (r: { y0: number; y1: number; z0: number; z1: number }) => ({ y0: r.y0, y1: r.y1, z0: r.z0, z1: r.z1 });
     const duct = prepareDuct({
-      ...common, boxes: geometry.boxes, openings: geometry.openings,
+      ...common, boxes: geometry.boxes, openings: geometry.openings, media: liningMedia(geometry, s.air),
       inlet: { x: ports.inlet.x, rect: rectOf(ports.inlet.rect), clearTo: ports.inlet.clearTo },
       outlet: { x: ports.outlet.x, rect: rectOf(ports.outlet.rect), clearFrom: ports.outlet.clearFrom, termination: term },
       incident: { mode: s.duct.incident.mode, amplitude: s.duct.incident.amplitudePa },

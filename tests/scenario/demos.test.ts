@@ -1,14 +1,14 @@
 import { readdirSync, readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
-import { buildGeometry, readScenario } from '../../engine/scenario/index.ts';
+import { buildGeometry, liningReport, readScenario } from '../../engine/scenario/index.ts';
 
 const dir = new URL('../../scenarios/', import.meta.url);
 const demos = readdirSync(dir).filter((f) => f.endsWith('.json') && f !== 'schema.json');
 const read = (file: string) => readScenario(readFileSync(new URL(file, dir), 'utf8'));
 
 describe('demo scenarios', () => {
-  it('are the four promised ones', () => {
-    expect(demos.sort()).toEqual(['generator-room-small.json', 'kitchen-extract-stub-resonator.json', 'office-plenum-offset-ports.json', 'plant-room-supply-silencer.json']);
+  it('are the five promised ones', () => {
+    expect(demos.sort()).toEqual(['ahu-discharge-lined-plenum.json', 'generator-room-small.json', 'kitchen-extract-stub-resonator.json', 'office-plenum-offset-ports.json', 'plant-room-supply-silencer.json']);
   });
 
   it.each(demos)('%s validates without warnings, says it is invented, and stays small', (file) => {
@@ -35,6 +35,17 @@ describe('demo scenarios', () => {
     const g = buildGeometry(read('office-plenum-offset-ports.json').scenario);
     const { inlet, outlet } = g.duct!;
     expect(Math.min(inlet.rect.y1, outlet.rect.y1) - Math.max(inlet.rect.y0, outlet.rect.y0)).toBeLessThanOrEqual(0);
+  });
+
+  it('lines the whole AHU plenum and nothing else, with a library material inside its model\'s fitted range', () => {
+    const { scenario } = read('ahu-discharge-lined-plenum.json');
+    if (scenario.kind !== 'duct') throw new Error('expected a duct');
+    const g = buildGeometry(scenario);
+    expect(g.linings.map((l) => l.face).sort()).toEqual(['+x', '+y', '+z', '-x', '-y', '-z']);
+    expect(new Set(g.linings.map((l) => l.section))).toEqual(new Set(['plenum']));
+    expect(scenario.linings[0].material.library).toBe('mineral-wool-light');
+    const report = liningReport(scenario, g);
+    expect(report[0].validity.status).toBe('in-range');
   });
 
   it('sweeps the generator room from 31.5 to 125 Hz with one source and two receivers', () => {

@@ -44,8 +44,8 @@ export const FULL_DUCT = {
   },
   sourcePower: { octaveBandsDb: { '31.5': 70, 63: 80, 125: 82, 250: 81, 500: 78, 1000: 75, 2000: 72, 4000: 70, 8000: 66 } },
   linings: [
-    { section: 'box', faces: ['+z', '-z'], thickness: 0.05, material: { model: 'delany-bazley', flowResistivity: 20000 } },
-    { section: 'box', faces: ['-x'], thickness: 0.1, material: { model: 'miki', flowResistivity: 12000 } },
+    { section: 'box', faces: ['+z', '-z'], thickness: 0.05, material: { model: 'delany-bazley', flowResistivity: 5000 } },
+    { section: 'box', faces: ['-x'], thickness: 0.1, material: { library: 'glass-wool-light' } },
   ],
 };
 
