@@ -21,10 +21,10 @@ export interface FactorOptions {
   maxPerturbed?: number;
 }
 
-export interface WorstPivot {
+export interface PivotRecord {
   permuted: number;
   original: number;
-  magnitude: number; // |d| as computed, before perturbation
+  magnitude: number; // |d| as computed, before any perturbation
   scale: number; // max |A_jk| of its original row
 }
 
@@ -34,7 +34,7 @@ export interface Numeric {
   panels: Float64Array; // 2 · storedEntries: supernode panels, see frontal.ts for their layout
   diagonal: FrontDiagonal; // D and 1/D in the factor's numbering
   perturbed: number; // pivots replaced under the tolerance
-  worstPivot: WorstPivot | null; // smallest pivot relative to its row scale among the perturbed
+  smallestPivot: PivotRecord | null; // the pivot smallest relative to its row scale (null when n = 0)
 }
 
 export const DEFAULT_PIVOT_TOLERANCE = 1e-12;
@@ -79,7 +79,7 @@ export function factor(A: ComplexCsr, S: Symbolic, opts: FactorOptions = {}): Nu
     stack.copyWithin(base, cOff, cOff + cLen);
     top = base + cLen;
   }
-  return { symbolic: S, matrix: A, panels, diagonal, perturbed: guard.count, worstPivot: guard.worst };
+  return { symbolic: S, matrix: A, panels, diagonal, perturbed: guard.count, smallestPivot: guard.smallest() };
 }
 
 function checkPattern(A: ComplexCsr, S: Symbolic): void {
@@ -144,7 +144,9 @@ function extendAdd(
 /** Pivot guard: zero or non-finite pivots throw; tiny ones are perturbed (keeping their phase) and counted. */
 class PivotGuard implements PivotPolicy {
   count = 0;
-  worst: WorstPivot | null = null;
+  private minRatio = Infinity; // smallest |d| / scale seen
+  private minAt = -1;
+  private minMagnitude = 0;
 
   constructor(
     private readonly S: Symbolic,
@@ -157,12 +159,14 @@ class PivotGuard implements PivotPolicy {
     const mag = Math.sqrt(dr * dr + di * di);
     const scale = this.scale[j];
     if (!(mag > 0) || mag === Infinity) throw new SingularSystemError(this.where(j), mag, scale);
+    if (mag / scale < this.minRatio) {
+      this.minRatio = mag / scale;
+      this.minAt = j;
+      this.minMagnitude = mag;
+    }
     const floor = this.tolerance * scale;
     if (mag < floor) {
       this.count++;
-      if (this.worst === null || mag / scale < this.worst.magnitude / this.worst.scale) {
-        this.worst = { ...this.where(j), magnitude: mag, scale };
-      }
       if (this.count > this.limit) {
         throw new SingularSystemError(this.where(j), mag, scale, `${this.count} pivots fell below ${this.tolerance} of their row's largest entry`);
       }
@@ -171,6 +175,11 @@ class PivotGuard implements PivotPolicy {
     }
     out[0] = dr;
     out[1] = di;
+  }
+
+  smallest(): PivotRecord | null {
+    if (this.minAt === -1) return null;
+    return { ...this.where(this.minAt), magnitude: this.minMagnitude, scale: this.scale[this.minAt] };
   }
 
   private where(j: number): { permuted: number; original: number } {
