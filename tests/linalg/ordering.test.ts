@@ -29,8 +29,15 @@ describe('minimumDegree', () => {
   it('puts dense rows last and still orders every node', () => {
     const n = 400;
     const I: number[] = [], J: number[] = [];
-    for (let i = 0; i + 1 < n; i++) I.push(i, i + 1), J.push(i + 1, i);
-    for (let i = 0; i < n; i++) if (i !== 7) I.push(7, i), J.push(i, 7); // node 7 couples with all
+    for (let i = 0; i + 1 < n; i++) {
+      I.push(i, i + 1);
+      J.push(i + 1, i);
+    }
+    for (let i = 0; i < n; i++) {
+      if (i === 7) continue; // node 7 couples with all
+      I.push(7, i);
+      J.push(i, 7);
+    }
     const A = csrFromTriplets(n, I, J, I.map(() => 1), I.map(() => 0));
     const perm = minimumDegree(A);
     expect(isPermutation(perm, n)).toBe(true);

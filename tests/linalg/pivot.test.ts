@@ -98,7 +98,11 @@ describe('pivot guard', () => {
 
   it('throws when too many pivots need perturbing', () => {
     const I: number[] = [], J: number[] = [], R: number[] = [];
-    for (let t = 0; t < 20; t++) I.push(2 * t, 2 * t, 2 * t + 1, 2 * t + 1), J.push(2 * t, 2 * t + 1, 2 * t, 2 * t + 1), R.push(1e-20, 1, 1, 1);
+    for (let t = 0; t < 20; t++) {
+      I.push(2 * t, 2 * t, 2 * t + 1, 2 * t + 1);
+      J.push(2 * t, 2 * t + 1, 2 * t, 2 * t + 1);
+      R.push(1e-20, 1, 1, 1);
+    }
     const A = csrFromTriplets(40, I, J, R, R.map(() => 0));
     const S = analyze(A, identityPermutation(40));
     // common practice: a static-pivoting budget; beyond it the factor is not trusted
