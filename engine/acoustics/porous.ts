@@ -12,8 +12,10 @@
  * - 'miki': Miki's modification (J. Acoust. Soc. Jpn (E) 11(1), 1990, 19–24) in the variable f/σ,
  *   published with (10³f/σ): Zc = ρ₀c₀[1 + 5.50 (10³f/σ)^−0.632 − j 8.43 (10³f/σ)^−0.632],
  *   kc = (ω/c₀)[1 + 7.81 (10³f/σ)^−0.618 − j 11.41 (10³f/σ)^−0.618] (≈ 0.070, 0.107, 0.109, 0.160 in f/σ).
- *   Fitted to the same data (0.01 ≤ f/σ ≤ 1); below it the surface impedance of a layer stays
- *   physically admissible (Re Zs > 0), which Delany & Bazley's form does not guarantee.
+ *   Fitted to the same data (0.01 ≤ f/σ ≤ 1). Its real and imaginary parts share one exponent, so
+ *   below the fitted range the surface impedance of a layer stays physically admissible (Re Zs > 0)
+ *   far further down than with Delany & Bazley's form, which turns non-physical soon below it (though
+ *   not for all f·d: very thin layers at f/σ ≲ 10⁻³ go wrong with either).
  */
 import { abs, add, cx, div, mul, scale, sub, type Complex } from './complex.ts';
 import { requirePositive } from './checks.ts';
@@ -33,6 +35,8 @@ interface PowerLaw { c: number; e: number } // c·v^−e
 interface ModelLaws {
   /** The model's variable from f (Hz), σ and ρ₀. */
   variable: (frequencyHz: number, sigma: number, density: number) => number;
+  /** The frequency at which the variable takes a value. */
+  frequencyAt: (value: number, sigma: number, density: number) => number;
   variableName: string;
   /** The power laws take argScale × the variable: 10³ for Miki's published coefficients. */
   argScale: number;
@@ -41,11 +45,11 @@ interface ModelLaws {
 
 const LAWS: Record<PorousModel, ModelLaws> = {
   'delany-bazley': {
-    variable: (f, sigma, rho) => (rho * f) / sigma, variableName: 'ρ₀f/σ', argScale: 1,
+    variable: (f, sigma, rho) => (rho * f) / sigma, frequencyAt: (v, sigma, rho) => (v * sigma) / rho, variableName: 'ρ₀f/σ', argScale: 1,
     zRe: { c: 0.0571, e: 0.754 }, zIm: { c: 0.087, e: 0.732 }, kRe: { c: 0.0978, e: 0.700 }, kIm: { c: 0.189, e: 0.595 },
   },
   miki: {
-    variable: (f, sigma) => f / sigma, variableName: 'f/σ', argScale: 1e3,
+    variable: (f, sigma) => f / sigma, frequencyAt: (v, sigma) => v * sigma, variableName: 'f/σ', argScale: 1e3,
     zRe: { c: 5.50, e: 0.632 }, zIm: { c: 8.43, e: 0.632 }, kRe: { c: 7.81, e: 0.618 }, kIm: { c: 11.41, e: 0.618 },
   },
 };
@@ -111,7 +115,7 @@ export interface PorousValidity {
   /** The variable over the frequencies asked about, lowest and highest. */
   range: [number, number];
   fitted: readonly [number, number];
-  /** 'extrapolated': below Miki's fitted range, where his form stays physically admissible. */
+  /** 'extrapolated': below Miki's fitted range, where his form stays physically admissible far further down than Delany & Bazley's. */
   status: 'in-range' | 'extrapolated' | 'out-of-range';
   warning: string | null;
 }
@@ -130,7 +134,7 @@ export function porousValidity(model: PorousModel, fromHz: number, toHz: number,
   const parts: string[] = [];
   if (below) {
     parts.push(model === 'miki'
-      ? `${name} falls to ${fmt(range[0])}, below the fitted ${lo}: Miki's form is extrapolated there (it keeps a physically admissible surface impedance, but is unverified)`
+      ? `${name} falls to ${fmt(range[0])}, below the fitted ${lo}: Miki's form is extrapolated there (it stays physically admissible much further down than Delany & Bazley's, but is unverified)`
       : `${name} falls to ${fmt(range[0])}, below the fitted ${lo}: Delany & Bazley's power laws are extrapolated there and can give a layer a non-physical surface impedance; the "miki" model behaves better at low frequencies`);
   }
   if (above) parts.push(`${name} reaches ${fmt(range[1])}, above the fitted ${hi}: the material is nearly transparent there and the fit is unverified`);
@@ -139,6 +143,6 @@ export function porousValidity(model: PorousModel, fromHz: number, toHz: number,
 
 /** The frequencies (Hz) where a model is within its fitted range for this σ and ρ₀. */
 export function porousFittedFrequencies(model: PorousModel, flowResistivity: number, density: number): [number, number] {
-  const unit = porousVariable(model, 1, flowResistivity, density); // the variable at 1 Hz; it is proportional to f
-  return [POROUS_FITTED_RANGE[0] / unit, POROUS_FITTED_RANGE[1] / unit];
+  const at = (v: number) => LAWS[model].frequencyAt(v, flowResistivity, density);
+  return [at(POROUS_FITTED_RANGE[0]), at(POROUS_FITTED_RANGE[1])];
 }

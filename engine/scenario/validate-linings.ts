@@ -13,7 +13,7 @@ import { get, readArray, readEnum, readEnumOr, readNumber, readObject, readStrin
 import { didYouMean } from './suggest.ts';
 import type { LiningModel, NormalisedAir, NormalisedDuct, NormalisedLining, NormalisedLiningMaterial, NormalisedSection, NormalisedSweep, Side } from './types.ts';
 
-/** Miki's form: fitted to the same data as Delany & Bazley's, and physically admissible below it. */
+/** Miki's form: fitted to the same data as Delany & Bazley's, and physically admissible much further below it. */
 export const DEFAULT_LINING_MODEL: LiningModel = 'miki';
 
 export interface LiningContext { duct?: NormalisedDuct; sweep?: NormalisedSweep; air?: NormalisedAir }
@@ -94,7 +94,7 @@ function readOwnMaterial(ck: Checker, material: Json, path: string): NormalisedL
 function readLibraryMaterial(ck: Checker, material: Json, library: unknown, path: string): NormalisedLiningMaterial | undefined {
   const id = readEnum(ck, library, join(path, 'library'), 'the library material', LINING_LIBRARY);
   const model = readEnumOr(ck, get(material, 'model'), join(path, 'model'), 'the material model', LINING_MODELS, DEFAULT_LINING_MODEL,
-    'not given: Miki\'s form, which keeps a layer\'s surface impedance physically admissible below the fitted range');
+    'not given: Miki\'s form, whose layers stay physically admissible further below the fitted range than with Delany & Bazley\'s');
   if (id === undefined || model === undefined) return undefined;
   return { model, flowResistivity: liningMaterial(id)!.flowResistivity, library: id };
 }
