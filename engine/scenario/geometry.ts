@@ -124,57 +124,82 @@ export function faceRect(box: Box, side: Side): Rect {
 }
 
 function ductGeometry(scenario: NormalisedDuctScenario): Geometry {
-  const { sections, branches, outlet } = scenario.duct;
-  const rawSections = layOutSections(sections);
-  const rawBranches = branches.map((b) => {
-    const i = sections.findIndex((s) => s.name === b.section);
-    return layOutBranch(b, sections[i], rawSections[i]);
-  });
-  const laid = layOutLinings({ sections, sectionBoxes: rawSections, branches: branches.map((b, i) => ({ name: b.name, section: b.section, box: rawBranches[i] })), outlet }, scenario.linings);
-  if (laid.problems.length > 0) throw new Error(`buildGeometry: ${laid.problems[0].statement} (validate the scenario first)`);
-  const snap = snapsFor([...rawSections, ...rawBranches, ...laid.slabs.flatMap((l) => l.pieces)]);
-  const sectionBoxes = rawSections.map((b) => snapBox(b, snap));
-  const branchBoxes = rawBranches.map((b) => snapBox(b, snap));
-  const slabs = laid.slabs.map((l) => ({ ...l, pieces: l.pieces.map((b) => snapBox(b, snap)) }));
+  const { branches, outlet } = scenario.duct;
+  const { sectionBoxes, branchBoxes, slabs } = snappedParts(scenario);
   const linings = liningBoxes(scenario, slabs, [...sectionBoxes, ...branchBoxes]);
   const boxes = [...linings.boxes, ...sectionBoxes, ...branchBoxes];
   const first = sectionBoxes[0], last = sectionBoxes[sectionBoxes.length - 1];
-  const linedBoxes = (section: string) => linings.layouts.filter((l) => l.section === section).map((l) => l.region);
   const openings: Opening[] = [{ side: '-x', rect: faceRect(first, '-x'), name: 'inlet' }];
   if (outlet === 'anechoic') openings.push({ side: '+x', rect: faceRect(last, '+x'), name: 'outlet' });
   branches.forEach((b, i) => {
     if (b.end === 'open') openings.push({ side: b.side, rect: faceRect(branchBoxes[i], b.side), name: b.name });
   });
-  const onSection = (name: string) => branchBoxes.filter((_, i) => branches[i].section === name);
-  const outletLined = outlet === 'anechoic' ? linedBoxes(last.tag) : [];
   const duct: DuctPorts = {
-    inlet: { x: first.x0, rect: crossSection(first), clearTo: Math.min(first.x1, ...[...onSection(first.tag), ...linedBoxes(first.tag)].map((b) => b.x0)) },
-    outlet: { x: last.x1, rect: crossSection(last), clearFrom: Math.max(last.x0, ...[...onSection(last.tag), ...outletLined].map((b) => b.x1)), termination: outlet },
+    ...ports(scenario, sectionBoxes, branchBoxes, linings.layouts),
     sections: sectionBoxes.map((b) => ({ name: b.tag, x0: b.x0, x1: b.x1, width: b.y1 - b.y0, height: b.z1 - b.z0, ...crossSection(b) })),
     branches: branches.map((b, i) => ({ name: b.name, section: b.section, side: b.side, end: b.end, box: branchBoxes[i] })),
   };
   return { kind: 'duct', boxes, linings: linings.layouts, bounds: boundingBox(boxes, 'bounds'), openings, breakpoints: breakpointsOf(boxes), duct };
 }
 
+/** Sections, branches and lining slabs laid out, then snapped together so that faces meant to meet are equal. */
+function snappedParts(scenario: NormalisedDuctScenario): { sectionBoxes: Box[]; branchBoxes: Box[]; slabs: LiningSlab[] } {
+  const { sections, branches, outlet } = scenario.duct;
+  const rawSections = layOutSections(sections);
+  const rawBranches = branches.map((b) => {
+    const i = sections.findIndex((s) => s.name === b.section);
+    return layOutBranch(b, sections[i], rawSections[i]);
+  });
+  const placed = branches.map((b, i) => ({ name: b.name, section: b.section, box: rawBranches[i] }));
+  const laid = layOutLinings({ sections, sectionBoxes: rawSections, branches: placed, outlet }, scenario.linings);
+  if (laid.problems.length > 0) throw new Error(`buildGeometry: ${laid.problems[0].statement} (validate the scenario first)`);
+  const snap = snapsFor([...rawSections, ...rawBranches, ...laid.slabs.flatMap((l) => l.pieces)]);
+  return {
+    sectionBoxes: rawSections.map((b) => snapBox(b, snap)),
+    branchBoxes: rawBranches.map((b) => snapBox(b, snap)),
+    slabs: laid.slabs.map((l) => ({ ...l, pieces: l.pieces.map((b) => snapBox(b, snap)) })),
+  };
+}
+
+/** The ports and how far their runs are straight: up to the first branch or lining, from the last (linings only when measured). */
+function ports(scenario: NormalisedDuctScenario, sectionBoxes: Box[], branchBoxes: Box[], linings: LiningLayout[]): Pick<DuctPorts, 'inlet' | 'outlet'> {
+  const { branches, outlet } = scenario.duct, first = sectionBoxes[0], last = sectionBoxes[sectionBoxes.length - 1];
+  const onSection = (name: string) => branchBoxes.filter((_, i) => branches[i].section === name);
+  const lined = (name: string) => linings.filter((l) => l.section === name).map((l) => l.region);
+  const outletLined = outlet === 'anechoic' ? lined(last.tag) : [];
+  return {
+    inlet: { x: first.x0, rect: crossSection(first), clearTo: Math.min(first.x1, ...[...onSection(first.tag), ...lined(first.tag)].map((b) => b.x0)) },
+    outlet: { x: last.x1, rect: crossSection(last), clearFrom: Math.max(last.x0, ...[...onSection(last.tag), ...outletLined].map((b) => b.x1)), termination: outlet },
+  };
+}
+
+/** The grid stores a cell's box index in 16 bits. */
+const MAX_BOXES = 32_000;
+
 /** The lining slabs as boxes, cut where the material needs finer elements than the air, with their layouts. */
 function liningBoxes(scenario: NormalisedDuctScenario, slabs: LiningSlab[], others: Box[]): { boxes: Box[]; layouts: LiningLayout[] } {
   const rule = { order: scenario.mesh.order, pointsPerWavelength: scenario.mesh.pointsPerWavelength, frequenciesHz: scenario.sweep.frequenciesHz };
   const airSize = airElementSize(rule, scenario.air.soundSpeed);
   const sized = slabs.map((slab) => {
-    const m = scenario.linings[slab.lining].material, size = liningElementSize(rule, m.model, m.flowResistivity, scenario.air);
-    return { slab, size, material: m };
+    const material = scenario.linings[slab.lining].material;
+    return { slab, material, size: liningElementSize(rule, material.model, material.flowResistivity, scenario.air) };
   });
-  const cuts = liningCuts(sized.flatMap((s) => s.slab.pieces.map((box) => ({ box, size: s.size }))), breakpointsOf([...others, ...slabs.flatMap((s) => s.pieces)]), airSize);
+  const pieces = sized.flatMap((s) => s.slab.pieces.map((box) => ({ box, size: s.size })));
+  const cuts = liningCuts(pieces, breakpointsOf([...others, ...pieces.map((p) => p.box)]), airSize);
   const boxes: Box[] = [];
   const layouts = sized.map(({ slab, size, material }): LiningLayout => {
     const start = boxes.length;
     for (const piece of slab.pieces) boxes.push(...sliceBox(piece, cuts));
-    const section = scenario.duct.sections[slab.section].name, tag = slab.pieces[0].tag;
+    const tag = slab.pieces[0].tag;
     return {
-      lining: slab.lining, section, face: slab.face, tag, thickness: slab.thickness, model: material.model, flowResistivity: material.flowResistivity,
-      library: material.library, boxes: boxes.map((_, i) => i).slice(start), region: boundingBox(slab.pieces, tag), elementSize: size < airSize ? size : null,
+      lining: slab.lining, section: scenario.duct.sections[slab.section].name, face: slab.face, tag, thickness: slab.thickness,
+      model: material.model, flowResistivity: material.flowResistivity, library: material.library,
+      boxes: Array.from({ length: boxes.length - start }, (_, i) => start + i), region: boundingBox(slab.pieces, tag), elementSize: size < airSize ? size : null,
     };
   });
+  if (boxes.length + others.length > MAX_BOXES) {
+    throw new Error(`buildGeometry: the linings need ${boxes.length} boxes to resolve the material's wavelength, more than the grid can index: lower the top of the sweep, the points per wavelength, or the lining's flow resistivity`);
+  }
   return { boxes, layouts };
 }
 

@@ -1,6 +1,7 @@
 /** Linings as boxes: the corner and end-wall rules, the ports' unlined runs, and the finer cut for the material's wavelength. */
 import { describe, expect, it } from 'vitest';
-import { buildGeometry, formatIssues, validateScenario, type Box, type Geometry, type NormalisedScenario } from '../../engine/scenario/index.ts';
+import { buildGeometry, formatIssues, liningMedia, validateScenario, type Box, type Geometry, type NormalisedScenario } from '../../engine/scenario/index.ts';
+import { porousMedium } from '../../engine/acoustics/index.ts';
 import { prepareScenario } from '../../engine/solve/scenario.ts';
 
 const air = { soundSpeed: 343, density: 1.2 };
@@ -52,6 +53,14 @@ describe('a chamber lined on all six faces', () => {
     // what is left of the chamber is the airway plus the two openings through the end linings
     const airway = (0.6 - 2 * 0.08) * (0.5 - 2 * 0.05) * (0.4 - 2 * 0.05), openings = 2 * 0.08 * 0.2 * 0.15;
     expect(boxes.reduce((v, b) => v + volume(b), 0)).toBeCloseTo(volume(chamber) - airway - openings, 12);
+  });
+
+  it('gives each lining box its material\'s medium and every other box the air', () => {
+    const media = liningMedia(g, air)!(500), n = liningBoxes(g).length;
+    expect(media).toHaveLength(g.boxes.length);
+    expect(media.slice(n).every((m) => m === null)).toBe(true);
+    for (const l of g.linings) for (const i of l.boxes) expect(media[i]).toEqual(porousMedium('miki', 500, l.flowResistivity, air));
+    expect(liningMedia(buildGeometry(scenarioOf({ sections: [{ name: 'a', length: 1, width: 0.1, height: 0.1 }] }, [])), air)).toBeUndefined();
   });
 
   it('leaves the ports straight and unlined, their faces on the grid', () => {
