@@ -14,6 +14,7 @@ import { surfaceAdmittance } from '../assembly/boundary.ts';
 import { ductResults, ductSystem, prepareDuct, solveDuctAt, type DuctPoint, type DuctPrepared } from './duct.ts';
 import { prepareRoom, roomResults, roomSystem, solveRoomAt, type RoomPoint, type RoomPrepared } from './room.ts';
 import type { Mesh } from '../grid/mesh.ts';
+import { estimateSize, LARGE_PROBLEM_DOFS, ProblemTooLarge } from './size.ts';
 
 export interface MeshInfo {
   order: number;
@@ -37,8 +38,15 @@ export type PointResult = ({ kind: 'duct' } & DuctPoint) | ({ kind: 'room' } & R
 
 const WALL_SIDE: Record<string, Side> = { 'x-': '-x', 'x+': '+x', 'y-': '-y', 'y+': '+y', 'z-': '-z', 'z+': '+z' };
 
-export function prepareScenario(s: NormalisedScenario): Prepared {
+export interface PrepareOptions {
+  /** Refuse (ProblemTooLarge) above this many estimated dofs; Infinity when the user confirmed a large run. */
+  maxDofs?: number;
+}
+
+export function prepareScenario(s: NormalisedScenario, opts: PrepareOptions = {}): Prepared {
   const geometry = buildGeometry(s), top = Math.max(...s.sweep.frequenciesHz);
+  const size = estimateSize(s, geometry), limit = opts.maxDofs ?? LARGE_PROBLEM_DOFS;
+  if (!(size.dofs <= limit)) throw new ProblemTooLarge(size, limit);
   const common = {
     soundSpeed: s.air.soundSpeed, density: s.air.density, order: s.mesh.order, pointsPerWavelength: s.mesh.pointsPerWavelength,
     maxFrequencyHz: top, absorber: { kind: s.absorber.kind, layers: s.absorber.layers, thickness: s.absorber.thickness ?? undefined },
