@@ -18,7 +18,7 @@ export interface NodeLattice {
 }
 
 export interface DissectionOptions {
-  /** Boxes with at most this many dofs are not cut further. Default 64. */
+  /** Boxes with at most this many dofs are not cut further. Default 32. */
   leafSize?: number;
   /** How a leaf box is ordered: minimum degree on its element-coupling graph, or lattice order. Default minimumDegree. */
   leaf?: 'minimumDegree' | 'lattice';
@@ -43,7 +43,7 @@ export function latticeDissection(lat: NodeLattice, ndofs: number, opts: Dissect
   const [nx, ny, nz] = lat.dims;
   const d: Dissector = {
     lat, perm: new Int32Array(ndofs), count: 0, hist: new Int32Array(Math.max(nx, ny, nz)),
-    local: new Int32Array(ndofs).fill(-1), leafSize: opts.leafSize ?? 64, leaf: opts.leaf ?? 'minimumDegree',
+    local: new Int32Array(ndofs).fill(-1), leafSize: opts.leafSize ?? 32, leaf: opts.leaf ?? 'minimumDegree',
   };
   dissect(d, [0, 0, 0, nx - 1, ny - 1, nz - 1]);
   if (d.count !== ndofs) throw new Error(`latticeDissection: ordered ${d.count} of ${ndofs} dofs`);

@@ -38,15 +38,21 @@ export interface Numeric {
 }
 
 export const DEFAULT_PIVOT_TOLERANCE = 1e-12;
+/** Offsets into the panel and stack arrays are Int32 in the kernels. */
+const INDEX_LIMIT = 0x7fffffff;
 
 export function factor(A: ComplexCsr, S: Symbolic, opts: FactorOptions = {}): Numeric {
   checkPattern(A, S);
+  if (2 * Math.max(S.storedEntries, S.stackPeak) > INDEX_LIMIT) {
+    throw new RangeError(`factor: ${S.storedEntries} factor entries exceed what 32-bit offsets address; the problem is too large for this solver`);
+  }
   const n = S.n;
   const panels = new Float64Array(2 * S.storedEntries);
   const stack = new Float64Array(2 * S.stackPeak);
   const work = new Float64Array(2 * S.workEntries);
   const map = new Int32Array(n);
   const rel = new Int32Array(S.maxFront);
+  const rowStart = new Int32Array(S.maxFront);
   const scale = new Float64Array(n);
   const diagonal: FrontDiagonal = {
     dRe: new Float64Array(n), dIm: new Float64Array(n), invRe: new Float64Array(n), invIm: new Float64Array(n),
@@ -75,7 +81,7 @@ export function factor(A: ComplexCsr, S: Symbolic, opts: FactorOptions = {}): Nu
       extendAdd(stack, src, rowIdx, rowPtr[ch], mc, map, rel, panels, off, ns, cOff);
       src += mc * (mc + 1);
     }
-    factorFront(panels, off, F, ns, stack, cOff, work, first, diagonal, guard);
+    factorFront(panels, off, F, ns, stack, cOff, work, first, diagonal, guard, rowStart);
     stack.copyWithin(base, cOff, cOff + cLen);
     top = base + cLen;
   }

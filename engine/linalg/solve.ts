@@ -42,6 +42,10 @@ export function solveRefined(A: ComplexCsr, N: Numeric, b: ComplexVector, steps 
 
 function refine(A: ComplexCsr, N: Numeric, b: ComplexVector, steps: number, maxSteps: number): ComplexVector {
   const n = A.n;
+  if (b.re.length !== n || b.im.length !== n) throw new RangeError(`solve: right-hand side has length ${b.re.length}, expected ${n}`);
+  for (let i = 0; i < n; i++) {
+    if (b.re[i] - b.re[i] !== 0 || b.im[i] - b.im[i] !== 0) throw new RangeError(`solve: right-hand side entry ${i} is not finite`);
+  }
   const nb = norm2(b) || 1;
   let x = solveOnce(N, b);
   const r = { re: new Float64Array(n), im: new Float64Array(n) };

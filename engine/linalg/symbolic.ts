@@ -133,23 +133,33 @@ function fillRowStructure(
     const last = superStart[s + 1] - 1;
     const begin = rowPtr[s], end = rowPtr[s + 1];
     let q = begin;
-    const take = (i: number): void => {
-      if (i <= last || marker[i] === s) return;
-      if (q === end) throw new Error(`analyze: internal error, supernode ${s} has more rows than its column count`);
-      marker[i] = s;
-      rowIdx[q++] = i;
-    };
     for (let j = superStart[s]; j <= last; j++) {
       const row = perm[j];
-      for (let k = p.rowPtr[row]; k < p.rowPtr[row + 1]; k++) take(pinv[p.colIdx[k]]);
+      for (let k = p.rowPtr[row]; k < p.rowPtr[row + 1]; k++) {
+        const i = pinv[p.colIdx[k]];
+        if (i <= last || marker[i] === s) continue;
+        if (q === end) throw structureError(s, end - begin);
+        marker[i] = s;
+        rowIdx[q++] = i;
+      }
     }
     for (let c = childPtr[s]; c < childPtr[s + 1]; c++) {
       const ch = child[c];
-      for (let k = rowPtr[ch]; k < rowPtr[ch + 1]; k++) take(rowIdx[k]);
+      for (let k = rowPtr[ch]; k < rowPtr[ch + 1]; k++) {
+        const i = rowIdx[k];
+        if (i <= last || marker[i] === s) continue;
+        if (q === end) throw structureError(s, end - begin);
+        marker[i] = s;
+        rowIdx[q++] = i;
+      }
     }
-    if (q !== end) throw new Error(`analyze: internal error, supernode ${s} has ${q - begin} rows, expected ${end - begin}`);
+    if (q !== end) throw structureError(s, end - begin);
     rowIdx.subarray(begin, end).sort();
   }
+}
+
+function structureError(s: number, expected: number): Error {
+  return new Error(`analyze: internal error, the rows of supernode ${s} disagree with its column count (${expected})`);
 }
 
 interface FrontSizes {
