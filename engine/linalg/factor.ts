@@ -30,7 +30,7 @@ export interface PivotRecord {
 
 export interface Numeric {
   symbolic: Symbolic;
-  matrix: ComplexCsr; // the matrix factored, kept for iterative refinement
+  matrix: ComplexCsr; // the matrix factored, kept (not copied) for the residual check and refinement: leave its values alone while N is in use
   panels: Float64Array; // 2 · storedEntries: supernode panels, see frontal.ts for their layout
   diagonal: FrontDiagonal; // D and 1/D in the factor's numbering
   perturbed: number; // pivots replaced under the tolerance

@@ -80,15 +80,67 @@ export function randomPattern(n: number, degree: number, seed: number): SparsePa
 /**
  * 1D Lagrange element matrices on equispaced nodes, element length h (common practice: order 1,
  * K = [1 −1; −1 1]/h, M = h/6 [2 1; 1 2]; order 2 with nodes 0, h/2, h,
- * K = [7 −8 1; −8 16 −8; 1 −8 7]/(3h), M = h/30 [4 2 −1; 2 16 2; −1 2 4]).
+ * K = [7 −8 1; −8 16 −8; 1 −8 7]/(3h), M = h/30 [4 2 −1; 2 16 2; −1 2 4]); higher orders by
+ * (p+1)-point Gauss–Legendre quadrature, exact for these polynomial integrands.
  */
-export function lagrange1d(order: 1 | 2, h: number): { K: number[][]; M: number[][] } {
+export function lagrange1d(order: number, h: number): { K: number[][]; M: number[][] } {
   if (order === 1) return { K: [[1 / h, -1 / h], [-1 / h, 1 / h]], M: [[h / 3, h / 6], [h / 6, h / 3]] };
-  const k = 1 / (3 * h), m = h / 30;
-  return {
-    K: [[7 * k, -8 * k, k], [-8 * k, 16 * k, -8 * k], [k, -8 * k, 7 * k]],
-    M: [[4 * m, 2 * m, -m], [2 * m, 16 * m, 2 * m], [-m, 2 * m, 4 * m]],
-  };
+  if (order === 2) {
+    const k = 1 / (3 * h), m = h / 30;
+    return {
+      K: [[7 * k, -8 * k, k], [-8 * k, 16 * k, -8 * k], [k, -8 * k, 7 * k]],
+      M: [[4 * m, 2 * m, -m], [2 * m, 16 * m, 2 * m], [-m, 2 * m, 4 * m]],
+    };
+  }
+  const q = order + 1;
+  const nodes = Array.from({ length: q }, (_, a) => a / order);
+  const K = Array.from({ length: q }, () => new Array<number>(q).fill(0));
+  const M = Array.from({ length: q }, () => new Array<number>(q).fill(0));
+  for (const [x, w] of gaussLegendre01(q)) {
+    const phi = nodes.map((_, a) => basis(nodes, a, x));
+    const dphi = nodes.map((_, a) => basisDerivative(nodes, a, x));
+    for (let a = 0; a < q; a++) for (let b = 0; b < q; b++) {
+      K[a][b] += (w * dphi[a] * dphi[b]) / h;
+      M[a][b] += w * phi[a] * phi[b] * h;
+    }
+  }
+  return { K, M };
+}
+
+function basis(nodes: number[], a: number, x: number): number {
+  let v = 1;
+  for (let b = 0; b < nodes.length; b++) if (b !== a) v *= (x - nodes[b]) / (nodes[a] - nodes[b]);
+  return v;
+}
+
+function basisDerivative(nodes: number[], a: number, x: number): number {
+  let sum = 0;
+  for (let c = 0; c < nodes.length; c++) {
+    if (c === a) continue;
+    let v = 1 / (nodes[a] - nodes[c]);
+    for (let b = 0; b < nodes.length; b++) if (b !== a && b !== c) v *= (x - nodes[b]) / (nodes[a] - nodes[b]);
+    sum += v;
+  }
+  return sum;
+}
+
+/** n-point Gauss–Legendre rule on [0, 1] by Newton's method on P_n (common practice). */
+function gaussLegendre01(n: number): [number, number][] {
+  const out: [number, number][] = [];
+  for (let i = 0; i < n; i++) {
+    let x = Math.cos((Math.PI * (i + 0.75)) / (n + 0.5));
+    let dp = 1;
+    for (let it = 0; it < 100; it++) {
+      let p0 = 1, p1 = x;
+      for (let k = 2; k <= n; k++) [p0, p1] = [p1, ((2 * k - 1) * x * p1 - (k - 1) * p0) / k];
+      dp = (n * (x * p1 - p0)) / (x * x - 1);
+      const dx = p1 / dp;
+      x -= dx;
+      if (Math.abs(dx) < 1e-16) break;
+    }
+    out.push([(x + 1) / 2, 1 / ((1 - x * x) * dp * dp)]);
+  }
+  return out;
 }
 
 export interface LatticeProblem {
@@ -100,7 +152,7 @@ export interface LatticeProblem {
 
 export interface LatticeProblemOptions {
   elements: [number, number, number]; // hexahedra per axis
-  order?: 1 | 2; // lattice intervals per element and axis
+  order?: number; // lattice intervals per element and axis
   h?: number; // element edge
   k2: { re: number; im: number };
   solid?: (ex: number, ey: number, ez: number) => boolean; // elements left out
@@ -188,8 +240,8 @@ function position(p: SparsePattern, i: number, j: number): number {
 }
 
 /** Ke = Kx⊗My⊗Mz + Mx⊗Ky⊗Mz + Mx⊗My⊗Kz and Me = Mx⊗My⊗Mz, local node t = a + q(b + q c). */
-function elementMatrices(p: 1 | 2 | number, h: number): { Ke: Float64Array; Me: Float64Array } {
-  const { K, M } = lagrange1d(p as 1 | 2, h);
+function elementMatrices(p: number, h: number): { Ke: Float64Array; Me: Float64Array } {
+  const { K, M } = lagrange1d(p, h);
   const q = p + 1, nloc = q * q * q;
   const Ke = new Float64Array(nloc * nloc), Me = new Float64Array(nloc * nloc);
   for (let s = 0; s < nloc; s++) for (let t = 0; t < nloc; t++) {
