@@ -9,6 +9,8 @@ import { DEFAULT_MAX_BYTES, ScenarioError, formatIssues, parseScenarioText, vali
 import { describeFileError, readTextFile, writeFileAtomicIn } from '../engine/node/files.ts';
 import { meshOf, sectionCutOns, type PointResult, type Prepared } from '../engine/solve/scenario.ts';
 import { buildReport, tableCsv, type ReportFailure, type Summary } from '../engine/report/results.ts';
+import { ACCURACY_READING, FLAG_MEANINGS, THRESHOLDS, assessPoint, type PointAccuracy } from '../engine/solve/accuracy.ts';
+import { planeWaveValidBelowHz } from '../engine/solve/planewave.ts';
 import { fieldToVtu } from '../engine/report/vtk.ts';
 import { dofCoordinates } from '../engine/grid/mesh.ts';
 
@@ -148,14 +150,27 @@ export interface RunRecord {
   failures: ReportFailure[];
   totalSeconds: number;
   notes?: string[];
+  /** The order-check solves at p + 1 (matched to points by frequency), and those that failed. */
+  checks?: PointResult[];
+  checkFailures?: ReportFailure[];
+}
+
+/** Each point with its accuracy figures and flags (the order check where a p + 1 solve of the same frequency exists). */
+export function assessPoints(prepared: Prepared, points: readonly PointResult[], checks: readonly PointResult[] = []): (PointResult & { accuracy: PointAccuracy })[] {
+  return points.map((p) => ({ ...p, accuracy: assessPoint(prepared, p, checks.find((c) => c.frequencyHz === p.frequencyHz)) }));
 }
 
 /** spectrum.csv, bands.csv and summary.json in `dir`, each written atomically. */
 export async function writeReport(dir: string, run: RunRecord): Promise<{ files: string[]; summary: Summary }> {
   const { scenario, warnings } = run.loaded;
+  const checks = run.checks ?? [];
   const report = buildReport({
-    scenario, info: run.prepared.info, cutOns: sectionCutOns(run.prepared, run.prepared.info.topFrequencyHz), points: run.points,
+    scenario, info: run.prepared.info, cutOns: sectionCutOns(run.prepared, run.prepared.info.topFrequencyHz), points: assessPoints(run.prepared, run.points, checks),
     frequenciesHz: run.frequenciesHz, failures: run.failures, warnings, totalSeconds: run.totalSeconds, peakMemoryBytes: peakMemoryBytes(), notes: run.notes,
+    accuracy: {
+      reading: ACCURACY_READING, flagMeanings: FLAG_MEANINGS, thresholds: THRESHOLDS, planeWaveValidBelowHz: planeWaveValidBelowHz(run.prepared),
+      orderCheckedHz: checks.map((c) => c.frequencyHz).filter((f) => run.points.some((p) => p.frequencyHz === f)), orderCheckFailures: run.checkFailures,
+    },
   });
   const files = [join(dir, 'spectrum.csv'), join(dir, 'bands.csv'), join(dir, 'summary.json')];
   await writeFileAtomicIn(files[0], tableCsv(report.spectrum));

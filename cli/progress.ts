@@ -28,6 +28,17 @@ export class Progress {
     this.report(`${hz(frequencyHz)} Hz FAILED: ${message}`);
   }
 
+  /** An order-check solve at p + 1 finished (it counts in the total like a frequency). */
+  checked(point: PointResult, order: number): void {
+    this.done++;
+    this.report(`${hz(point.frequencyHz)} Hz order check at p = ${order}: ${pointSummary(point)}`);
+  }
+
+  checkFailed(frequencyHz: number, message: string): void {
+    this.done++;
+    this.report(`${hz(frequencyHz)} Hz order check failed: ${message}`);
+  }
+
   /** Ends the bar's line so that what follows starts on a line of its own. */
   finish(): void {
     if (this.drawn) this.stream.write('\n');
@@ -43,7 +54,7 @@ export class Progress {
       return;
     }
     const filled = Math.round((BAR_WIDTH * this.done) / this.total);
-    const line = `[${'#'.repeat(filled)}${'-'.repeat(BAR_WIDTH - filled)}] ${this.done}/${this.total} frequencies, ${times}  ${what}`;
+    const line = `[${'#'.repeat(filled)}${'-'.repeat(BAR_WIDTH - filled)}] ${this.done}/${this.total} solves, ${times}  ${what}`;
     // \r back to the line's start, ESC[K to clear what a longer previous line left.
     this.stream.write(`\r${line.slice(0, Math.max(40, (this.stream.columns || 100) - 1))}\x1b[K`);
     this.drawn = true;

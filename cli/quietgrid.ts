@@ -5,6 +5,7 @@
 import { EXIT_FAILED, EXIT_OK, EXIT_USAGE, UsageError, describeDefaults, describeWarnings, hz, loadScenario, parseOptions, scenarioPath, type Io } from './common.ts';
 import { solveCommand } from './solve.ts';
 import { exportCommand, importCommand } from './system.ts';
+import { verifyCommand } from './verify.ts';
 import { SolverFailure } from '../engine/solve/linear.ts';
 
 export const HELP = `Usage: quietgrid COMMAND [options]
@@ -16,6 +17,7 @@ Commands:
   validate SCENARIO.json         check a scenario; print its problems, or "ok" and the defaults used
   export-system SCENARIO.json    write the linear system at one frequency as Matrix Market files
   import-solution SCENARIO.json  read an external solver's solution and write the report for it
+  verify [--json]                run the built-in verification suite on this machine (a few minutes)
 
 Run "quietgrid COMMAND --help" for a command's options. Scenario files are described in
 scenarios/schema.json; scenarios/ has examples.
@@ -38,6 +40,7 @@ const COMMANDS: Record<string, Command> = {
   validate: validateCommand,
   'export-system': exportCommand,
   'import-solution': importCommand,
+  verify: verifyCommand,
 };
 
 async function validateCommand(args: string[], io: Io): Promise<number> {

@@ -5,6 +5,11 @@
  * only its own worker, and a worker that dies loses only the frequency it was on.
  *
  * With one worker, or one frequency, the work is done in this thread (no second copy of the mesh).
+ *
+ * The order check (engine/solve/accuracy.ts) runs in the same pool: frequencies in `checkFrequencies` are
+ * solved once more at element order p + 1, queued after the sweep; a worker prepares that finer problem the
+ * first time it takes such a job. Their results arrive apart from the sweep's (onCheck, outcome.checks), and a
+ * failed check is not a failed frequency.
  */
 import { Worker } from 'node:worker_threads';
 import { availableParallelism, freemem } from 'node:os';
@@ -12,6 +17,7 @@ import { performance } from 'node:perf_hooks';
 import { setImmediate as yieldToEvents } from 'node:timers/promises';
 import type { NormalisedScenario } from '../scenario/index.ts';
 import { prepareScenario, solvePoint, type PointResult, type Prepared } from '../solve/scenario.ts';
+import { finerScenario } from '../solve/accuracy.ts';
 
 export interface PointFailure { frequencyHz: number; message: string }
 
@@ -27,6 +33,11 @@ export interface PoolOptions {
   prepared?: Prepared;
   /** Worker entry (a .mjs bootstrap); default ./worker.mjs beside this file. */
   entry?: URL;
+  /** Frequencies to solve once more at element order p + 1 (the order check), after the sweep. */
+  checkFrequencies?: readonly number[];
+  /** Called as each order-check solve finishes. */
+  onCheck?: (point: PointResult) => void;
+  onCheckFailure?: (failure: PointFailure) => void;
 }
 
 export interface PoolOutcome {
@@ -37,6 +48,9 @@ export interface PoolOutcome {
   cancelled: boolean;
   /** Worker threads used; 0 when solved in this thread. */
   workers: number;
+  /** The order-check solves at p + 1 that finished, and those that failed (a cancelled run drops the rest). */
+  checks: PointResult[];
+  checkFailures: PointFailure[];
 }
 
 export interface PoolRun {
@@ -47,12 +61,23 @@ export interface PoolRun {
 
 /** What a worker is started with (worker_threads workerData). */
 export interface WorkerSetup { scenario: NormalisedScenario; keepFields: boolean }
-export type ToWorker = { type: 'solve'; frequencyHz: number } | { type: 'stop' };
+/** finer: solve at element order p + 1 (the order check); a check's field is never kept. */
+export type ToWorker = { type: 'solve'; frequencyHz: number; finer?: boolean } | { type: 'stop' };
 export type FromWorker =
   | { type: 'ready' }
-  | { type: 'result'; point: PointResult }
-  | { type: 'failure'; frequencyHz: number; message: string }
+  | { type: 'result'; point: PointResult; finer?: boolean }
+  | { type: 'failure'; frequencyHz: number; message: string; finer?: boolean }
   | { type: 'fatal'; message: string };
+
+interface Job { frequencyHz: number; finer: boolean }
+
+function jobsOf(frequenciesHz: readonly number[], checks: readonly number[] = []): Job[] {
+  return [...frequenciesHz.map((f) => ({ frequencyHz: f, finer: false })), ...checks.map((f) => ({ frequencyHz: f, finer: true }))];
+}
+
+function emptyOutcome(workers: number): PoolOutcome {
+  return { results: [], failures: [], unsolved: [], cancelled: false, workers, checks: [], checkFailures: [] };
+}
 
 const DEFAULT_ENTRY = new URL('./worker.mjs', import.meta.url);
 
@@ -66,7 +91,7 @@ export function defaultWorkerCount(frequencies: number, memoryEstimateBytes: num
 }
 
 export function solveFrequencies(scenario: NormalisedScenario, frequenciesHz: readonly number[], opts: PoolOptions = {}): PoolRun {
-  const workers = Math.min(opts.workers ?? availableParallelism(), frequenciesHz.length);
+  const workers = Math.min(opts.workers ?? availableParallelism(), frequenciesHz.length + (opts.checkFrequencies?.length ?? 0));
   if (!(Number.isInteger(workers) && workers >= 0)) throw new RangeError(`workers must be a positive integer (got ${opts.workers})`);
   return workers <= 1 ? inThisThread(scenario, frequenciesHz, opts) : new Pool(scenario, frequenciesHz, workers, opts).run();
 }
@@ -78,21 +103,36 @@ function messageOf(e: unknown): string {
 function inThisThread(scenario: NormalisedScenario, frequenciesHz: readonly number[], opts: PoolOptions): PoolRun {
   let cancelled = false;
   const work = async (): Promise<PoolOutcome> => {
-    const out: PoolOutcome = { results: [], failures: [], unsolved: [], cancelled: false, workers: 0 };
+    const out = emptyOutcome(0);
     const prepared = opts.prepared ?? prepareScenario(scenario);
-    for (let i = 0; i < frequenciesHz.length; i++) {
+    let finer: Prepared | Error | undefined;
+    const jobs = jobsOf(frequenciesHz, opts.checkFrequencies);
+    for (let i = 0; i < jobs.length; i++) {
       // Between frequencies, let signals and timers run so that a cancel can arrive.
       await yieldToEvents();
-      if (cancelled) return { ...out, cancelled: true, unsolved: frequenciesHz.slice(i) };
-      const f = frequenciesHz[i];
+      if (cancelled) return { ...out, cancelled: true, unsolved: jobs.slice(i).filter((j) => !j.finer).map((j) => j.frequencyHz) };
+      const { frequencyHz: f, finer: check } = jobs[i];
       try {
+        if (check) {
+          finer ??= prepareOrError(finerScenario(scenario));
+          if (finer instanceof Error) throw finer;
+          const point = solvePoint(finer, f, () => performance.now(), false);
+          out.checks.push(point);
+          opts.onCheck?.(point);
+          continue;
+        }
         const point = solvePoint(prepared, f, () => performance.now(), opts.keepFields ?? false);
         out.results.push(point);
         opts.onResult?.(point);
       } catch (e) {
         const failure = { frequencyHz: f, message: messageOf(e) };
-        out.failures.push(failure);
-        opts.onFailure?.(failure);
+        if (check) {
+          out.checkFailures.push(failure);
+          opts.onCheckFailure?.(failure);
+        } else {
+          out.failures.push(failure);
+          opts.onFailure?.(failure);
+        }
       }
     }
     return out;
@@ -100,13 +140,20 @@ function inThisThread(scenario: NormalisedScenario, frequenciesHz: readonly numb
   return { done: work(), cancel: () => { cancelled = true; } };
 }
 
-interface Slot { current: number | null; stopping: boolean }
+function prepareOrError(s: NormalisedScenario): Prepared | Error {
+  try {
+    return prepareScenario(s);
+  } catch (e) {
+    return e instanceof Error ? e : new Error(String(e));
+  }
+}
+
+interface Slot { current: Job | null; stopping: boolean }
 
 class Pool {
-  private readonly queue: number[];
+  private readonly queue: Job[];
   private readonly slots = new Map<Worker, Slot>();
-  private readonly results: PointResult[] = [];
-  private readonly failures: PointFailure[] = [];
+  private readonly out = emptyOutcome(0);
   private respawnsLeft: number;
   private lastCrash = '';
   private cancelled = false;
@@ -114,7 +161,7 @@ class Pool {
   private resolve: (o: PoolOutcome) => void = () => undefined;
 
   constructor(private readonly scenario: NormalisedScenario, frequenciesHz: readonly number[], private readonly size: number, private readonly opts: PoolOptions) {
-    this.queue = [...frequenciesHz];
+    this.queue = jobsOf(frequenciesHz, opts.checkFrequencies);
     // A crash may be this machine's doing (memory): replace a dead worker, but not forever.
     this.respawnsLeft = size;
   }
@@ -140,35 +187,45 @@ class Pool {
     if (m.type === 'fatal') return this.fatal(w, m.message);
     // Free the slot before the callbacks: one of them may cancel, and this frequency is done.
     slot.current = null;
-    if (m.type === 'result') this.keep(m.point);
-    else if (m.type === 'failure') this.fail({ frequencyHz: m.frequencyHz, message: m.message });
+    if (m.type === 'result') this.keep(m.point, m.finer ?? false);
+    else if (m.type === 'failure') this.fail({ frequencyHz: m.frequencyHz, message: m.message }, m.finer ?? false);
     if (!this.cancelled) this.feed(w, slot);
   }
 
-  private keep(point: PointResult): void {
-    this.results.push(point);
+  private keep(point: PointResult, finer: boolean): void {
+    if (finer) {
+      this.out.checks.push(point);
+      this.opts.onCheck?.(point);
+      return;
+    }
+    this.out.results.push(point);
     this.opts.onResult?.(point);
   }
 
-  private fail(failure: PointFailure): void {
-    this.failures.push(failure);
+  private fail(failure: PointFailure, finer: boolean): void {
+    if (finer) {
+      this.out.checkFailures.push(failure);
+      this.opts.onCheckFailure?.(failure);
+      return;
+    }
+    this.out.failures.push(failure);
     this.opts.onFailure?.(failure);
   }
 
   private feed(w: Worker, slot: Slot): void {
-    const f = this.queue.shift();
-    if (f === undefined) {
+    const job = this.queue.shift();
+    if (job === undefined) {
       slot.stopping = true;
       w.postMessage({ type: 'stop' } satisfies ToWorker);
       return;
     }
-    slot.current = f;
-    w.postMessage({ type: 'solve', frequencyHz: f } satisfies ToWorker);
+    slot.current = job;
+    w.postMessage((job.finer ? { type: 'solve', frequencyHz: job.frequencyHz, finer: true } : { type: 'solve', frequencyHz: job.frequencyHz }) satisfies ToWorker);
   }
 
   /** The scenario cannot be prepared: no worker will do better, so nothing left is solved. */
   private fatal(w: Worker, message: string): void {
-    for (const f of this.queue.splice(0)) this.fail({ frequencyHz: f, message });
+    for (const j of this.queue.splice(0)) this.fail({ frequencyHz: j.frequencyHz, message }, j.finer);
     this.slots.get(w)!.stopping = true;
     w.postMessage({ type: 'stop' } satisfies ToWorker);
   }
@@ -178,7 +235,8 @@ class Pool {
     if (!slot) return;
     this.slots.delete(w);
     this.lastCrash = message;
-    if (slot.current !== null) this.fail({ frequencyHz: slot.current, message: `the worker solving ${slot.current} Hz stopped: ${message}` });
+    const job = slot.current;
+    if (job !== null) this.fail({ frequencyHz: job.frequencyHz, message: `the worker solving ${job.frequencyHz} Hz${job.finer ? ' (order check)' : ''} stopped: ${message}` }, job.finer);
     if (this.queue.length > 0 && !this.cancelled) {
       if (this.respawnsLeft-- > 0) this.spawn();
       else if (this.slots.size === 0) this.failRest();
@@ -195,14 +253,15 @@ class Pool {
   }
 
   private failRest(): void {
-    for (const f of this.queue.splice(0)) this.fail({ frequencyHz: f, message: `not solved: every worker stopped (last: ${this.lastCrash})` });
+    for (const j of this.queue.splice(0)) this.fail({ frequencyHz: j.frequencyHz, message: `not solved: every worker stopped (last: ${this.lastCrash})` }, j.finer);
   }
 
   private cancel(): void {
     if (this.cancelled || this.finished) return;
     this.cancelled = true;
     const inFlight = [...this.slots.values()].flatMap((s) => (s.current === null ? [] : [s.current]));
-    const unsolved = [...inFlight, ...this.queue.splice(0)].sort((a, b) => a - b);
+    // the order checks not done are dropped: only the sweep's frequencies count as unsolved
+    const unsolved = [...inFlight, ...this.queue.splice(0)].filter((j) => !j.finer).map((j) => j.frequencyHz).sort((a, b) => a - b);
     const workers = [...this.slots.keys()];
     this.slots.clear();
     void Promise.all(workers.map((w) => w.terminate())).then(() => this.settle(unsolved));
@@ -215,6 +274,6 @@ class Pool {
   private settle(unsolved: number[]): void {
     if (this.finished) return;
     this.finished = true;
-    this.resolve({ results: this.results, failures: this.failures, unsolved, cancelled: this.cancelled, workers: this.size });
+    this.resolve({ ...this.out, unsolved, cancelled: this.cancelled, workers: this.size });
   }
 }

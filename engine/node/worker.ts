@@ -1,11 +1,13 @@
 /**
  * One worker thread of the pool (pool.ts): prepares the scenario once, then solves one frequency per
  * 'solve' message and posts each result as soon as it is ready, the field's arrays transferred rather
- * than copied. A failure at one frequency is reported and the worker goes on with the next.
+ * than copied. A failure at one frequency is reported and the worker goes on with the next. An order-check
+ * job ('solve' with finer) is solved on the scenario at element order p + 1, prepared on the first such job.
  */
 import { parentPort, workerData } from 'node:worker_threads';
 import { performance } from 'node:perf_hooks';
 import { prepareScenario, solvePoint, type Prepared } from '../solve/scenario.ts';
+import { finerScenario } from '../solve/accuracy.ts';
 import type { FromWorker, ToWorker, WorkerSetup } from './pool.ts';
 
 const port = parentPort!;
@@ -30,6 +32,24 @@ function solveOne(prepared: Prepared, frequencyHz: number): void {
   }
 }
 
+let finer: Prepared | Error | undefined;
+
+function checkOne(frequencyHz: number): void {
+  try {
+    if (finer === undefined) {
+      try {
+        finer = prepareScenario(finerScenario(setup.scenario));
+      } catch (e) {
+        finer = e instanceof Error ? e : new Error(String(e));
+      }
+    }
+    if (finer instanceof Error) throw finer;
+    post({ type: 'result', point: solvePoint(finer, frequencyHz, now, false), finer: true });
+  } catch (e) {
+    post({ type: 'failure', frequencyHz, message: messageOf(e), finer: true });
+  }
+}
+
 let prepared: Prepared | undefined;
 try {
   prepared = prepareScenario(setup.scenario);
@@ -40,5 +60,6 @@ try {
 
 port.on('message', (message: ToWorker) => {
   if (message.type === 'stop' || prepared === undefined) port.close();
+  else if (message.finer) checkOne(message.frequencyHz);
   else solveOne(prepared, message.frequencyHz);
 });

@@ -45,6 +45,27 @@ export interface ReportMeshInfo {
 
 interface PointStats { assembleSeconds: number; factorSeconds: number; solveSeconds: number; perturbedPivots: number }
 
+/** A point's own accuracy (engine/solve/accuracy.ts): null where a figure was not computed. */
+export interface ReportAccuracy {
+  reflectionEstimate: number | null;
+  orderCheckDb: number | null;
+  tlPlaneDb: number | null;
+  flags: readonly string[];
+}
+
+/** How the run checked itself: the legend of the accuracy columns and flags, from the caller. */
+export interface ReportAccuracyInfo {
+  reading: string;
+  flagMeanings: Readonly<Record<string, string>>;
+  thresholds: Readonly<Record<string, number>>;
+  /** Below this frequency tl_plane_db holds (the lowest first cut-on); null without a plane-wave estimate. */
+  planeWaveValidBelowHz: number | null;
+  /** The frequencies re-solved at order p + 1. */
+  orderCheckedHz: readonly number[];
+  /** Order-check solves that failed (the frequency's own result stands). */
+  orderCheckFailures?: readonly ReportFailure[];
+}
+
 export interface ReportDuctPoint {
   kind: 'duct';
   frequencyHz: number;
@@ -55,6 +76,7 @@ export interface ReportDuctPoint {
   energyBalance: number;
   method: string;
   stats: PointStats;
+  accuracy?: ReportAccuracy;
 }
 
 export interface ReportRoomPoint {
@@ -62,6 +84,7 @@ export interface ReportRoomPoint {
   frequencyHz: number;
   receivers: readonly { name: string; splDb: number }[];
   stats: PointStats;
+  accuracy?: ReportAccuracy;
 }
 
 export type ReportPoint = ReportDuctPoint | ReportRoomPoint;
@@ -83,6 +106,7 @@ export interface ReportInput {
   peakMemoryBytes?: number | null;
   /** Extra lines the caller wants in the summary (e.g. where an imported solution came from). */
   notes?: readonly string[];
+  accuracy?: ReportAccuracyInfo;
 }
 
 export interface Table { header: string[]; rows: CsvCell[][] }
@@ -115,8 +139,21 @@ export interface Summary {
   receiverColumns?: Record<string, string>;
   /** With sourcePower on a duct: A-weighted total of the outlet octave-band sound power. */
   outletLwaTotalDb?: number | null;
+  accuracy: SummaryAccuracy;
   cautions: Caution[];
   conventions: string;
+}
+
+export interface SummaryAccuracy {
+  /** How to read the accuracy columns and flags. */
+  reading: string;
+  flagMeanings: Record<string, string>;
+  thresholds: Record<string, number>;
+  planeWaveValidBelowHz: number | null;
+  orderCheckedHz: number[];
+  orderCheckFailures: ReportFailure[];
+  /** Every solved frequency with the flags that fired there (empty: none). */
+  flagsByFrequency: { frequencyHz: number; flags: string[] }[];
 }
 
 export interface Report { spectrum: Table; bands: Table; summary: Summary }
@@ -124,7 +161,10 @@ export interface Report { spectrum: Table; bands: Table; summary: Summary }
 export const CONVENTIONS =
   'Complex amplitudes are peak values with time dependence e^{+jωt}; sound pressure levels use the RMS value |p|/√2 re 20 µPa and sound power levels re 1 pW (ISO 1683); TL = 10·log10(W_incident / W_transmitted).';
 
-const DUCT_SPECTRUM = ['frequency_hz', 'tl_db', 'tl_decomposition_db', 'inlet_reflection', 'inlet_absorption', 'energy_balance', 'method'];
+const DUCT_SPECTRUM = ['frequency_hz', 'tl_db', 'tl_decomposition_db', 'inlet_reflection', 'inlet_absorption', 'energy_balance', 'method', 'reflection_estimate', 'order_check_db', 'tl_plane_db', 'flags'];
+const ROOM_ACCURACY = ['reflection_estimate', 'order_check_db', 'flags'];
+
+export const DEFAULT_ACCURACY_READING = 'Accuracy columns: reflection_estimate, energy_balance, order_check_db, tl_plane_db and flags (semicolon-separated names, empty when none fired); blank where not computed.';
 const BAND_COLUMNS = ['band_hz', 'band_low_hz', 'band_high_hz', 'bandwidth', 'points'];
 const POWER_COLUMNS = ['source_lw_db', 'outlet_lw_db', 'outlet_lwa_db'];
 
@@ -144,13 +184,22 @@ export function tableCsv(t: Table): string {
 // ---- spectrum ----
 
 function ductSpectrum(points: readonly ReportDuctPoint[]): Table {
-  const rows = points.map((p) => [p.frequencyHz, cell(p.tlDb), cell(p.tlDecompositionDb), cell(p.inletReflection), cell(p.inletAbsorption), cell(p.energyBalance), p.method]);
+  const rows = points.map((p) => {
+    const a = p.accuracy;
+    return [p.frequencyHz, cell(p.tlDb), cell(p.tlDecompositionDb), cell(p.inletReflection), cell(p.inletAbsorption), cell(p.energyBalance), p.method,
+      cell(a?.reflectionEstimate ?? null), cell(a?.orderCheckDb ?? null), cell(a?.tlPlaneDb ?? null), flagsCell(a)];
+  });
   return { header: [...DUCT_SPECTRUM], rows };
 }
 
 function roomSpectrum(points: readonly ReportRoomPoint[], columns: ReceiverColumn[]): Table {
-  const rows = points.map((p) => [p.frequencyHz, ...columns.map((c) => cell(p.receivers.find((r) => r.name === c.name)?.splDb ?? null))]);
-  return { header: ['frequency_hz', ...columns.map((c) => c.header)], rows };
+  const rows = points.map((p) => [p.frequencyHz, ...columns.map((c) => cell(p.receivers.find((r) => r.name === c.name)?.splDb ?? null)), cell(p.accuracy?.reflectionEstimate ?? null), cell(p.accuracy?.orderCheckDb ?? null), flagsCell(p.accuracy)]);
+  return { header: ['frequency_hz', ...columns.map((c) => c.header), ...ROOM_ACCURACY], rows };
+}
+
+/** Flag names joined by ';' (no CSV quoting needed), empty when none fired or none were computed. */
+function flagsCell(a: ReportAccuracy | undefined): CsvCell {
+  return a && a.flags.length > 0 ? a.flags.join(';') : null;
 }
 
 interface ReceiverColumn { name: string; header: string }
@@ -244,11 +293,21 @@ function summary(input: ReportInput, points: readonly ReportPoint[], columns: Re
     defaultsUsed: s.defaultsUsed.map((d) => ({ ...d })), warnings: (input.warnings ?? []).map((w) => w.message), notes,
     frequenciesHz: [...input.frequenciesHz].sort((a, b) => a - b), solvedFrequenciesHz: points.map((p) => p.frequencyHz),
     failures: [...(input.failures ?? [])].sort((a, b) => a.frequencyHz - b.frequencyHz).map((f) => ({ ...f })),
-    cautions: cautions(), conventions: CONVENTIONS,
+    accuracy: summaryAccuracy(input, points), cautions: cautions(), conventions: CONVENTIONS,
   };
   if (s.kind === 'room') out.receiverColumns = Object.fromEntries(columns.map((c) => [c.header, c.name]));
   if (outletLwaTotalDb !== undefined) out.outletLwaTotalDb = outletLwaTotalDb;
   return out;
+}
+
+function summaryAccuracy(input: ReportInput, points: readonly ReportPoint[]): SummaryAccuracy {
+  const a = input.accuracy;
+  return {
+    reading: a?.reading ?? DEFAULT_ACCURACY_READING, flagMeanings: { ...(a?.flagMeanings ?? {}) }, thresholds: { ...(a?.thresholds ?? {}) },
+    planeWaveValidBelowHz: a?.planeWaveValidBelowHz ?? null, orderCheckedHz: [...(a?.orderCheckedHz ?? [])].sort((x, y) => x - y),
+    orderCheckFailures: [...(a?.orderCheckFailures ?? [])].map((f) => ({ ...f })),
+    flagsByFrequency: points.map((p) => ({ frequencyHz: p.frequencyHz, flags: [...(p.accuracy?.flags ?? [])] })),
+  };
 }
 
 function timing(points: readonly ReportPoint[], totalSeconds: number): Summary['timing'] {

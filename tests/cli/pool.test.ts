@@ -50,6 +50,31 @@ describe('worker pool (stand-in worker)', () => {
     expect(out.unsolved).toEqual([3]);
   });
 
+  it('order checks come back apart from the sweep, a failed check is not a failed frequency', async () => {
+    const checked: number[] = [], checkFailed: number[] = [];
+    const out = await solveFrequencies(fake({ failAt: [-3] }), [1, 2, 3], {
+      workers: 2, entry: FAKE, checkFrequencies: [2, 3], onCheck: (p) => checked.push(p.frequencyHz), onCheckFailure: (f) => checkFailed.push(f.frequencyHz),
+    }).done;
+    expect(freqsOf(out.results)).toEqual([1, 2, 3]);
+    expect(out.failures).toEqual([]);
+    expect(out.checks.map((p) => [p.frequencyHz, (p as { tlDb: number }).tlDb])).toEqual([[2, 3]]);
+    expect(out.checkFailures).toEqual([{ frequencyHz: 3, message: 'check singular at 3' }]);
+    expect([checked, checkFailed]).toEqual([[2], [3]]);
+  });
+
+  it('a cancel drops the order checks not done; only sweep frequencies count as unsolved', async () => {
+    let cancel = () => undefined as void;
+    const run = solveFrequencies(fake({ hangAt: [2] }), [1, 2], {
+      workers: 2, entry: FAKE, checkFrequencies: [1, 2], onCheck: () => cancel(),
+    });
+    cancel = run.cancel;
+    const out = await run.done;
+    expect(out.cancelled).toBe(true);
+    expect(out.unsolved).toEqual([2]);
+    expect(freqsOf(out.results)).toEqual([1]);
+    expect(out.checks.map((p) => p.frequencyHz)).toEqual([1]);
+  });
+
   it('transfers field arrays when asked', async () => {
     const out = await solveFrequencies(fake({}), [7, 8], { workers: 2, entry: FAKE, keepFields: true }).done;
     const p = out.results.find((r) => r.frequencyHz === 8)!;

@@ -27,7 +27,7 @@ const octave = (nominal: number) => bandOfNominal(nominal, 1)!.exactHz;
 describe('spectrum table', () => {
   it('sorts the points by frequency and leaves TL blank for a closed outlet', () => {
     const r = buildReport(input(ductScenario('third-octave'), [duct(250, 3), duct(125, null)]));
-    expect(r.spectrum.header).toEqual(['frequency_hz', 'tl_db', 'tl_decomposition_db', 'inlet_reflection', 'inlet_absorption', 'energy_balance', 'method']);
+    expect(r.spectrum.header).toEqual(['frequency_hz', 'tl_db', 'tl_decomposition_db', 'inlet_reflection', 'inlet_absorption', 'energy_balance', 'method', 'reflection_estimate', 'order_check_db', 'tl_plane_db', 'flags']);
     expect(r.spectrum.rows.map((row) => row[0])).toEqual([125, 250]);
     expect(r.spectrum.rows[0][1]).toBeNull();
     expect(r.spectrum.rows[0][6]).toBe('none');
@@ -41,8 +41,8 @@ describe('spectrum table', () => {
     const scenario: ReportScenario = { title: 'room', kind: 'room', defaultsUsed: [], sweep: { spacing: 'list', frequenciesHz: [] }, room: { receivers: [{ name: 'a b' }, { name: 'a-b' }] } };
     const point: ReportPoint = { kind: 'room', frequencyHz: 100, receivers: [{ name: 'a b', splDb: 70 }, { name: 'a-b', splDb: 80 }], stats: STATS };
     const r = buildReport(input(scenario, [point]));
-    expect(r.spectrum.header).toEqual(['frequency_hz', 'spl_db_a_b', 'spl_db_a_b_2']);
-    expect(r.spectrum.rows).toEqual([[100, 70, 80]]);
+    expect(r.spectrum.header).toEqual(['frequency_hz', 'spl_db_a_b', 'spl_db_a_b_2', 'reflection_estimate', 'order_check_db', 'flags']);
+    expect(r.spectrum.rows).toEqual([[100, 70, 80, null, null, null]]);
     expect(r.summary.receiverColumns).toEqual({ spl_db_a_b: 'a b', spl_db_a_b_2: 'a-b' });
   });
 });
@@ -124,5 +124,35 @@ describe('summary', () => {
     expect(lines.some((l) => /No mean flow/.test(l))).toBe(true);
     expect(new Set(lines).size).toBe(lines.length);
     expect(JSON.parse(JSON.stringify(s))).toEqual(s);
+  });
+});
+
+describe('accuracy columns', () => {
+  const accurate = (f: number, accuracy: ReportPoint['accuracy']): ReportPoint => ({ ...(duct(f, 5) as ReportPoint & { kind: 'duct' }), accuracy });
+
+  it('writes the estimate, the order check (blank where not run), tl_plane_db and the flags joined by ";"', () => {
+    const r = buildReport(input(ductScenario('third-octave'), [
+      accurate(500, { reflectionEstimate: 2e-2, orderCheckDb: null, tlPlaneDb: 6.5, flags: ['layer_reflection', 'plane_wave_invalid'] }),
+      accurate(250, { reflectionEstimate: 1e-6, orderCheckDb: 0.01, tlPlaneDb: 4.5, flags: [] }),
+    ], { accuracy: { reading: 'how to read', flagMeanings: { order: 'refine' }, thresholds: { orderCheckDb: 0.5 }, planeWaveValidBelowHz: 381, orderCheckedHz: [250] } }));
+    const h = r.spectrum.header, col = (name: string) => r.spectrum.rows.map((row) => row[h.indexOf(name)]);
+    expect(col('reflection_estimate')).toEqual([1e-6, 2e-2]);
+    expect(col('order_check_db')).toEqual([0.01, null]);
+    expect(col('tl_plane_db')).toEqual([4.5, 6.5]);
+    expect(col('flags')).toEqual([null, 'layer_reflection;plane_wave_invalid']);
+    const csv = parseCsv(tableCsv(r.spectrum));
+    expect(csv[1][h.indexOf('flags')]).toBe('');
+    expect(csv[2][h.indexOf('flags')]).toBe('layer_reflection;plane_wave_invalid');
+    expect(csv[1][h.indexOf('energy_balance')]).toBe('0.000001');
+    const a = r.summary.accuracy;
+    expect(a.flagsByFrequency).toEqual([{ frequencyHz: 250, flags: [] }, { frequencyHz: 500, flags: ['layer_reflection', 'plane_wave_invalid'] }]);
+    expect([a.reading, a.planeWaveValidBelowHz, a.orderCheckedHz, a.flagMeanings, a.orderCheckFailures]).toEqual(['how to read', 381, [250], { order: 'refine' }, []]);
+  });
+
+  it('without accuracy data the columns are blank and the summary still says how to read them', () => {
+    const r = buildReport(input(ductScenario('third-octave'), [duct(250, 3)]));
+    expect(r.spectrum.rows[0].slice(7)).toEqual([null, null, null, null]);
+    expect(r.summary.accuracy.reading).toMatch(/flags/);
+    expect(r.summary.accuracy.flagsByFrequency).toEqual([{ frequencyHz: 250, flags: [] }]);
   });
 });
