@@ -1,0 +1,41 @@
+/**
+ * What a run will cost before it starts: memory from the solver's own estimate per worker, time from
+ * the factorisation's operation count and the matrix size, scaled by what this machine measured on
+ * its last run (a single factor kept between sessions).
+ */
+import type { MeshInfo } from '../../../engine/solve/scenario.ts';
+
+/** Rough costs of a plain-JavaScript frontal factorisation and assembly on one core (measured on the demos). */
+const SECONDS_PER_FLOP = 1e-9;
+const SECONDS_PER_ENTRY = 4e-7;
+const OVERHEAD_SECONDS = 0.02;
+/** Each worker holds its own mesh, matrix and factor: take twice the factor's estimate. */
+const MEMORY_FACTOR = 2;
+
+export function predictedSecondsPerFrequency(info: MeshInfo, calibration = 1): number {
+  return calibration * (info.factorFlops * SECONDS_PER_FLOP + info.nnz * SECONDS_PER_ENTRY + OVERHEAD_SECONDS);
+}
+
+export interface RunEstimate { workers: number; seconds: number; memoryBytes: number; perWorkerBytes: number }
+
+export function estimateRun(info: MeshInfo, frequencies: number, workers: number, calibration = 1, prepareSeconds = 0): RunEstimate {
+  const w = Math.max(1, Math.min(workers, frequencies));
+  const perWorkerBytes = MEMORY_FACTOR * info.memoryEstimateBytes;
+  return { workers: w, seconds: prepareSeconds + Math.ceil(frequencies / w) * predictedSecondsPerFrequency(info, calibration), memoryBytes: w * perWorkerBytes, perWorkerBytes };
+}
+
+/** The calibration after a run: measured over predicted seconds per frequency, blended with the old value. */
+export function recalibrate(previous: number, info: MeshInfo, measuredSecondsPerFrequency: number): number {
+  const ratio = measuredSecondsPerFrequency / predictedSecondsPerFrequency(info, 1);
+  if (!Number.isFinite(ratio) || ratio <= 0) return previous;
+  return Math.min(100, Math.max(0.01, 0.5 * previous + 0.5 * ratio));
+}
+
+/**
+ * Workers to start by default: one per core, no more than there are frequencies, and no more than half
+ * the device memory (when the browser tells it) holds.
+ */
+export function defaultWorkers(cores: number, frequencies: number, perWorkerBytes: number, deviceMemoryGb?: number): number {
+  const byMemory = deviceMemoryGb ? Math.floor((0.5 * deviceMemoryGb * 1e9) / Math.max(1, perWorkerBytes)) : Infinity;
+  return Math.max(1, Math.min(Math.max(1, cores), Math.max(1, frequencies), byMemory));
+}

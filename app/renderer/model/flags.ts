@@ -1,0 +1,30 @@
+/**
+ * Points worth a second look, each with the reason in words: the energy check of the solve, and inlet
+ * quantities a passive duct cannot produce.
+ */
+import type { PointResult } from '../../../engine/solve/scenario.ts';
+import { formatNumber } from './units.ts';
+
+/** |1 − (W_r + W_t)/W_i| above this flags a point: the mesh or the absorbing layers are too coarse. */
+export const ENERGY_BALANCE_LIMIT = 1e-3;
+/** Slack on |R| ≤ 1 and TL ≥ 0 before a point counts as odd (rounding of the power integrals). */
+const PASSIVE_SLACK = 1e-3;
+
+export function pointFlags(p: PointResult): string[] {
+  const out: string[] = [];
+  if (p.kind === 'duct') {
+    if (!Number.isFinite(p.energyBalance) || p.energyBalance > ENERGY_BALANCE_LIMIT) {
+      out.push(`energy balance ${formatNumber(p.energyBalance, 2)} is above ${ENERGY_BALANCE_LIMIT}: refine the mesh (points per wavelength, order) or the absorbing layers`);
+    }
+    if (!Number.isFinite(p.inletReflection) || p.inletReflection > 1 + PASSIVE_SLACK) {
+      out.push(`inlet reflection |R| = ${formatNumber(p.inletReflection, 4)} is above 1, which a passive duct cannot reflect`);
+    }
+    if (p.tlDb !== null && p.tlDb < -10 * Math.log10(1 + PASSIVE_SLACK)) {
+      out.push(`transmission loss ${formatNumber(p.tlDb, 3)} dB is below 0: more power leaves than enters`);
+    }
+  } else if (p.receivers.some((r) => !Number.isFinite(r.splDb))) {
+    out.push('a receiver level is not finite');
+  }
+  if (p.stats.perturbedPivots > 0) out.push(`${p.stats.perturbedPivots} pivots were perturbed in the factorisation: the system is close to singular (a resonance?)`);
+  return out;
+}

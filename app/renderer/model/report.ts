@@ -1,0 +1,68 @@
+/**
+ * The run's tables as the command line writes them (engine/report/results.ts), so the app's CSV files
+ * and the CLI's are the same; plus the band table for the fraction the user picks to look at.
+ */
+import { buildReport, tableCsv, type Report, type Table } from '../../../engine/report/results.ts';
+import type { CsvCell } from '../../../engine/report/csv.ts';
+import type { RunState } from './run.ts';
+
+/** The report of what the run has solved so far; null before anything was solved. */
+export function runReport(run: RunState, now: number): Report | null {
+  if (!run.scenario || !run.info || run.points.length === 0) return null;
+  const failures = run.frequencies.flatMap((s) =>
+    s.status === 'failed' ? [{ frequencyHz: s.frequencyHz, message: s.message ?? 'failed' }]
+      : s.status === 'unsolved' ? [{ frequencyHz: s.frequencyHz, message: 'not solved: the run was stopped' }] : []);
+  return buildReport({
+    scenario: run.scenario, info: run.info, cutOns: run.cutOns, points: run.points,
+    frequenciesHz: run.frequencies.map((s) => s.frequencyHz), failures, warnings: run.warnings,
+    totalSeconds: ((run.finishedAt ?? now) - run.startedAt) / 1000, peakMemoryBytes: null,
+  });
+}
+
+/**
+ * Bands at the fraction asked for: the report built as if the sweep had that spacing, keeping only
+ * the rows of that bandwidth (a third-octave report with a source power also carries octave rows).
+ */
+export function bandTable(run: RunState, fraction: 1 | 3, now: number): Table | null {
+  if (!run.scenario) return null;
+  const spacing = fraction === 1 ? 'octave' : 'third-octave';
+  const report = runReport({ ...run, scenario: { ...run.scenario, sweep: { ...run.scenario.sweep, spacing } } as RunState['scenario'] }, now);
+  if (!report) return null;
+  const col = report.bands.header.indexOf('bandwidth');
+  return { header: report.bands.header, rows: report.bands.rows.filter((r) => r[col] === spacing) };
+}
+
+export function column(t: Table, name: string): CsvCell[] {
+  const i = t.header.indexOf(name);
+  return i < 0 ? [] : t.rows.map((r) => r[i]);
+}
+
+export function numbers(cells: readonly CsvCell[]): (number | null)[] {
+  return cells.map((c) => (typeof c === 'number' && Number.isFinite(c) ? c : null));
+}
+
+export { tableCsv };
+
+/** Column headings of the tables in words (the CSV keeps the machine names). */
+export const COLUMN_LABELS: Record<string, string> = {
+  frequency_hz: 'Frequency, Hz',
+  tl_db: 'TL, dB',
+  tl_decomposition_db: 'TL (plane waves), dB',
+  inlet_reflection: '|R| at inlet',
+  inlet_absorption: 'Inlet absorption',
+  energy_balance: 'Energy balance',
+  method: 'Method',
+  band_hz: 'Band, Hz',
+  band_low_hz: 'From, Hz',
+  band_high_hz: 'To, Hz',
+  bandwidth: 'Bandwidth',
+  points: 'Points',
+  source_lw_db: 'Source Lw, dB',
+  outlet_lw_db: 'Outlet Lw, dB',
+  outlet_lwa_db: 'Outlet LwA, dB(A)',
+};
+
+export function columnLabel(header: string, receiverColumns?: Record<string, string>): string {
+  if (receiverColumns && receiverColumns[header]) return `SPL ${receiverColumns[header]}, dB`;
+  return COLUMN_LABELS[header] ?? header;
+}
