@@ -47,6 +47,24 @@ describe('layer_reflection: a sweep across a port cut-on', () => {
     expect(above.q.re).toBeGreaterThan(0);
   });
 
+  it('every layered opening is a port: inlet, anechoic outlet, open branch end (its own cross-section)', () => {
+    const q = prepare({ air: AIR, sweep: { frequenciesHz: [600] }, duct: { sections: [{ name: 'run', length: 1.2, width: 0.2, height: 0.15 }], branches: [{ name: 'vent', section: 'run', at: 0.6, side: '+z', length: 0.3, width: 0.3, height: 0.1, end: 'open' }] } });
+    const e = reflectionEstimate(q, 600);
+    expect(e.ports.map((x) => x.port)).toEqual(['inlet', 'outlet', 'vent']);
+    // the vent's 0.3 (along x) × 0.1 m mouth: its first mode cuts on at 343/(2·0.3) = 572 Hz, propagating at 600 Hz
+    expect([e.ports[2].mode!.m, e.ports[2].mode!.n, e.ports[2].mode!.propagating]).toEqual([1, 0, true]);
+    expect(e.max).toBe(Math.max(...e.ports.flatMap((x) => [x.planeWave!, x.mode!.reflection!])));
+  });
+
+  it('a room: the worst over the tuned range, so one layer is flagged and three are not', () => {
+    const room = (layers: number) => prepare({ sweep: { frequenciesHz: [100] }, mesh: { order: 3 }, absorber: { layers }, room: { size: [1, 1, 1], walls: { 'x+': 'open' }, sources: [{ name: 's', position: [0.4, 0.5, 0.5], volumeVelocity: 1e-3 }] } });
+    const one = reflectionEstimate(room(1), 100), three = reflectionEstimate(room(3), 100);
+    console.log(`room, order 3: worst |R| over the tuned range ${one.max!.toExponential(2)} (1 layer), ${three.max!.toExponential(2)} (3 layers)`);
+    // Source: shared notes on discrete layers (minimised worst |R| over k_x/k ∈ [0.2, 1], κ/k ∈ [0.2, 5]: 1e-3.0 with 3 layers at p = 3)
+    expect(three.max!).toBeLessThan(THRESHOLDS.layerReflection);
+    expect(one.max!).toBeGreaterThan(THRESHOLDS.layerReflection);
+  });
+
   it('constant and smooth layers have no closed form: no estimate, no flag', () => {
     for (const kind of ['constant', 'smooth']) {
       const q = prepare({ air: AIR, sweep: { frequenciesHz: [400] }, absorber: { kind }, duct: { sections: [{ name: 'run', length: 0.6, width: 0.2, height: 0.15 }] } });

@@ -84,7 +84,7 @@ describe('quietgrid validate and help', () => {
   it('--help for the program and each command; exit 0', async () => {
     const top = await quietgrid('--help');
     expect(top.code).toBe(0);
-    for (const command of ['solve', 'validate', 'export-system', 'import-solution']) {
+    for (const command of ['solve', 'validate', 'export-system', 'import-solution', 'verify']) {
       expect(top.stdout).toContain(command);
       const run = await quietgrid(command, '--help');
       expect(run.code).toBe(0);
