@@ -16,7 +16,7 @@ engine as your scenarios, each row with its source, tolerance, the value found a
              refinement and the number of layers
   duct       expansion chamber (Davis et al. 1954), closed side stub, plane-wave chain
   porous     a rigid-backed porous layer against its normal-incidence absorption
-About two minutes on two cores; the monopole group takes most of it.
+Under a minute on two cores; the monopole group takes most of it.
 
 Options:
   --json          print one JSON object instead of the tables
