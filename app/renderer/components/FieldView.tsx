@@ -66,7 +66,6 @@ export function FieldView(p: FieldProps) {
   }
   const b = p.geometry.bounds, lo = [b.x0, b.y0, b.z0][p.axis], hi = [b.x1, b.y1, b.z1][p.axis];
   const position = p.position ?? (lo + hi) / 2, k = LENGTH_SCALE[p.units];
-  const step = (hi - lo) / 200;
   return (
     <div className="field-view">
       <div className="slice-controls">
@@ -86,7 +85,7 @@ export function FieldView(p: FieldProps) {
         </div>
         <div className="field slider">
           <label htmlFor="qg-slice-pos">Position {AXIS_NAMES[p.axis]} = <output>{formatNumber(position * k, 4)} {p.units}</output></label>
-          <input id="qg-slice-pos" type="range" min={lo} max={hi} step={step} value={position} onChange={(e) => p.onChange({ position: Number(e.target.value) })} />
+          <input id="qg-slice-pos" type="range" min={lo} max={hi} step="any" value={position} onChange={(e) => p.onChange({ position: Number(e.target.value) })} />
         </div>
         <div className="field">
           <span className="label">Show</span>

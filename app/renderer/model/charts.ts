@@ -52,8 +52,8 @@ export function spectrumFigure(run: RunState): Figure {
     });
     const dec = duct.filter((p) => p.tlDecompositionDb !== null);
     if (dec.length > 0) data.push({
-      type: 'scatter', mode: 'lines', name: 'TL (plane-wave decomposition)', x: dec.map((p) => p.frequencyHz), y: dec.map((p) => p.tlDecompositionDb),
-      line: { color: PALETTE[2], width: 1.5, dash: 'dot' }, hovertemplate: 'plane waves %{y:.2f} dB at %{x:.4g} Hz<extra></extra>',
+      type: 'scatter', mode: 'markers', name: 'TL (plane-wave decomposition, a cross-check)', x: dec.map((p) => p.frequencyHz), y: dec.map((p) => p.tlDecompositionDb),
+      marker: { color: PALETTE[2], size: 9, symbol: 'x-thin-open', line: { width: 1.5, color: PALETTE[2] } }, hovertemplate: 'plane waves %{y:.2f} dB at %{x:.4g} Hz<extra></extra>',
     });
   }
   const flagged = pts.map((p) => ({ p, reasons: pointFlags(p) })).filter((x) => x.reasons.length > 0);
