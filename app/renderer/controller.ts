@@ -33,6 +33,8 @@ export interface UiState {
   workers: number | null;
   /** The user confirmed a run above the engine's size limit. */
   allowLarge: boolean;
+  /** Re-solve a few frequencies at element order p + 1 after the sweep (the engine's order check). */
+  orderCheck: boolean;
   notice: Notice | null;
   recent: RecentEntry[];
   /** A field to bring into view (from the problem list), with a counter so the same one can be asked twice. */
@@ -84,6 +86,7 @@ export interface Actions {
   setBandFraction(f: 1 | 3): void;
   setWorkers(n: number | null): void;
   setAllowLarge(on: boolean): void;
+  setOrderCheck(on: boolean): void;
   focusField(path: string): void;
   dismissNotice(): void;
   dismissRestored(): void;
@@ -108,7 +111,7 @@ function baseName(name: string): string {
 
 export function createController(env: Environment): Controller {
   const editor = createEditor(env.storage, { draft: DEFAULT_DEMO.draft, file: { name: DEFAULT_DEMO.fileName, path: null } });
-  const ui = createStore<UiState>({ tab: 'sketch', bandFraction: 3, workers: null, allowLarge: false, notice: null, recent: [], focus: null });
+  const ui = createStore<UiState>({ tab: 'sketch', bandFraction: 3, workers: null, allowLarge: false, orderCheck: true, notice: null, recent: [], focus: null });
   const run = createStore<RunState>(IDLE_RUN);
   const field = createStore<FieldViewState>({ frequencyHz: null, axis: 2, position: null, quantity: 'spl', animate: false, status: 'idle', slice: null, message: null, geometry: null });
   const estimator = createEstimator(env.createWorker);
@@ -212,6 +215,7 @@ export function createController(env: Environment): Controller {
     setTab: (tab) => { ui.set((s) => ({ ...s, tab })); if (tab === 'field') requestSlice(); },
     setBandFraction: (bandFraction) => ui.set((s) => ({ ...s, bandFraction })),
     setWorkers: (workers) => ui.set((s) => ({ ...s, workers })),
+    setOrderCheck: (orderCheck) => ui.set((s) => ({ ...s, orderCheck })),
     setAllowLarge: (allowLarge) => { ui.set((s) => ({ ...s, allowLarge })); requestEstimate(); },
     focusField: (path) => ui.set((s) => ({ ...s, tab: path.startsWith('sweep') || path.startsWith('mesh') || path.startsWith('absorber') ? 'sweep' : 'sketch', focus: { path, n: (s.focus?.n ?? 0) + 1 } })),
     dismissNotice: () => ui.set((s) => ({ ...s, notice: null })),
@@ -265,7 +269,7 @@ export function createController(env: Environment): Controller {
       field.set((f) => ({ ...f, frequencyHz: null, slice: null, status: 'idle', message: null, geometry: s.derived.geometry }));
       sliceKey = '';
       ui.set((u) => ({ ...u, notice: null }));
-      runner.start(v.scenario, s.draft, v.warnings, workers, ui.get().allowLarge);
+      runner.start(v.scenario, s.draft, v.warnings, workers, ui.get().allowLarge, ui.get().orderCheck);
     },
     cancel: () => runner.cancel(),
     setField(change) {

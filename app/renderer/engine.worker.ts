@@ -6,6 +6,8 @@
 import { validateScenario, formatIssues, type NormalisedScenario } from '../../engine/scenario/index.ts';
 import { meshOf, prepareScenario, sectionCutOns, solvePoint, type Prepared } from '../../engine/solve/scenario.ts';
 import { ProblemTooLarge } from '../../engine/solve/size.ts';
+import { ACCURACY_READING, assessPoint, defaultOrderCheckFrequencies, finerScenario, FLAG_MEANINGS, THRESHOLDS } from '../../engine/solve/accuracy.ts';
+import { planeWaveValidBelowHz } from '../../engine/solve/planewave.ts';
 import type { ComplexVector } from '../../engine/linalg/sparse.ts';
 import { elementOfCell, sampleSlice } from './field/sampler.ts';
 import { totalField } from './field/total.ts';
@@ -29,6 +31,9 @@ function normalise(value: unknown): NormalisedScenario {
 }
 
 let prepared: Prepared | undefined;
+/** The same scenario one order higher, for the order check: prepared on the first check. */
+let finer: Prepared | undefined;
+let allowLargeRun = false;
 let keepFields = false;
 const fields = new Map<number, ComplexVector>();
 let cellElements: Int32Array | undefined;
@@ -42,7 +47,9 @@ function prepare(scenario: unknown, keep: boolean, allowLarge: boolean): void {
   try {
     prepared = prepareScenario(normalise(scenario), limits(allowLarge));
     keepFields = keep;
-    post({ type: 'ready', info: prepared.info, cutOns: sectionCutOns(prepared, prepared.info.topFrequencyHz), prepareSeconds: (now() - t0) / 1000 });
+    allowLargeRun = allowLarge;
+    const accuracy = { reading: ACCURACY_READING, flagMeanings: { ...FLAG_MEANINGS }, thresholds: { ...THRESHOLDS }, planeWaveValidBelowHz: planeWaveValidBelowHz(prepared) };
+    post({ type: 'ready', info: prepared.info, cutOns: sectionCutOns(prepared, prepared.info.topFrequencyHz), accuracy, orderCheckHz: defaultOrderCheckFrequencies(prepared.scenario.sweep.frequenciesHz), prepareSeconds: (now() - t0) / 1000 });
   } catch (e) {
     post({ type: 'fatal', message: messageOf(e) });
   }
@@ -51,9 +58,21 @@ function prepare(scenario: unknown, keep: boolean, allowLarge: boolean): void {
 function solve(frequencyHz: number): void {
   if (!prepared) return post({ type: 'failure', frequencyHz, message: 'the worker has no prepared scenario' });
   try {
-    post({ type: 'result', point: solvePoint(prepared, frequencyHz, now, keepFields) });
+    const point = solvePoint(prepared, frequencyHz, now, keepFields);
+    post({ type: 'result', point: { ...point, accuracy: assessPoint(prepared, point) } });
   } catch (e) {
     post({ type: 'failure', frequencyHz, message: messageOf(e) });
+  }
+}
+
+function check(point: Extract<ToWorker, { type: 'check' }>['point']): void {
+  const f = point.frequencyHz;
+  try {
+    if (!prepared) throw new Error('the worker has no prepared scenario');
+    finer ??= prepareScenario(finerScenario(prepared.scenario), limits(allowLargeRun));
+    post({ type: 'checked', frequencyHz: f, accuracy: assessPoint(prepared, point, solvePoint(finer, f, now, false)) });
+  } catch (e) {
+    post({ type: 'check-failure', frequencyHz: f, message: messageOf(e) });
   }
 }
 
@@ -86,6 +105,7 @@ scope.onmessage = (event) => {
   switch (m.type) {
     case 'prepare': return prepare(m.scenario, m.keepFields, m.allowLarge);
     case 'solve': return solve(m.frequencyHz);
+    case 'check': return check(m.point);
     case 'estimate': return estimate(m.id, m.scenario, m.allowLarge);
     case 'field':
       // Fields are kept as the total pressure (the solver's inlet run holds the reflected wave only).

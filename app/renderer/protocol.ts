@@ -9,9 +9,21 @@
  *   field     prepare once, keep the fields handed to it, and answer 'slice' requests
  */
 import type { MeshInfo, PointResult } from '../../engine/solve/scenario.ts';
+import type { PointAccuracy } from '../../engine/solve/accuracy.ts';
 import type { DuctMode } from '../../engine/acoustics/index.ts';
 
 export interface SectionCutOns { section: string; modes: DuctMode[] }
+
+/** A solved point with its own accuracy figures and flags (engine/solve/accuracy.ts). */
+export type AssessedPoint = PointResult & { accuracy: PointAccuracy };
+
+/** How the points' accuracy is to be read: the engine's legend, meanings and thresholds. */
+export interface AccuracyInfo {
+  reading: string;
+  flagMeanings: Record<string, string>;
+  thresholds: Record<string, number>;
+  planeWaveValidBelowHz: number | null;
+}
 
 /** Axis normal to a slice plane: 0 = x, 1 = y, 2 = z. */
 export type Axis = 0 | 1 | 2;
@@ -50,6 +62,8 @@ export interface ToWorkerMap {
   /** allowLarge: the user confirmed a problem above the engine's size limit (LARGE_PROBLEM_DOFS). */
   prepare: { role: 'solve' | 'field'; scenario: unknown; keepFields: boolean; allowLarge: boolean };
   solve: { frequencyHz: number };
+  /** The order check: solve the point's frequency again at element order p + 1 and assess the point with it. */
+  check: { point: AssessedPoint };
   estimate: { id: number; scenario: unknown; allowLarge: boolean };
   /** A solved field for a field worker to keep. */
   field: { frequencyHz: number; re: Float64Array; im: Float64Array };
@@ -59,8 +73,11 @@ export interface ToWorkerMap {
 /** Messages from a worker, keyed by type. */
 export interface FromWorkerMap {
   /** Prepared: the mesh and solver sizes, and each section's cut-on frequencies up to the top of the sweep. */
-  ready: { info: MeshInfo; cutOns: SectionCutOns[]; prepareSeconds: number };
-  result: { point: PointResult };
+  /** orderCheckHz: the engine's default frequencies for the order check of this sweep. */
+  ready: { info: MeshInfo; cutOns: SectionCutOns[]; accuracy: AccuracyInfo; orderCheckHz: number[]; prepareSeconds: number };
+  result: { point: AssessedPoint };
+  checked: { frequencyHz: number; accuracy: PointAccuracy };
+  'check-failure': { frequencyHz: number; message: string };
   failure: { frequencyHz: number; message: string };
   /** The scenario cannot be prepared: the worker can do nothing more. */
   fatal: { message: string };

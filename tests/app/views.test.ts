@@ -6,7 +6,7 @@ import { describe, expect, it } from 'vitest';
 import { buildGeometry, validateScenario, type Issue, type NormalisedScenario } from '../../engine/scenario/index.ts';
 import { parseCsv } from '../../engine/report/csv.ts';
 import { bandsBetween } from '../../engine/acoustics/index.ts';
-import type { PointResult } from '../../engine/solve/scenario.ts';
+import type { AssessedPoint } from '../../app/renderer/protocol.ts';
 import { alignViews, ductViews, roomViews } from '../../app/renderer/model/drawing.ts';
 import { demoById } from '../../app/renderer/model/demos.ts';
 import { getAt, setAt, type Draft } from '../../app/renderer/model/draft.ts';
@@ -77,15 +77,17 @@ describe('band ticks', () => {
   });
 });
 
-function ductPoint(f: number, tl: number, over: Partial<Extract<PointResult, { kind: 'duct' }>> = {}): PointResult {
+function ductPoint(f: number, tl: number, over: Partial<Extract<AssessedPoint, { kind: 'duct' }>> = {}, flags: string[] = []): AssessedPoint {
   return {
     kind: 'duct', frequencyHz: f, tlDb: tl, tlIntensityDb: tl, tlDecompositionDb: tl, method: 'intensity', inletReflection: 0.5, inletAbsorption: 0.75,
     incidentPower: 1, transmittedPower: 10 ** (-tl / 10), reflectedPower: 0.25, energyBalance: 1e-5,
-    stats: { factorSeconds: 0, solveSeconds: 0, perturbedPivots: 0, residual: 0, assembleSeconds: 0 }, ...over,
-  } as PointResult;
+    stats: { factorSeconds: 0, solveSeconds: 0, perturbedPivots: 0, residual: 0, assembleSeconds: 0 },
+    accuracy: { frequencyHz: f, reflectionEstimate: 1e-5, energyBalance: 1e-5, orderCheckDb: null, tlPlaneDb: tl - 0.5, planeWaveValid: f < 381, flags },
+    ...over,
+  } as AssessedPoint;
 }
 
-function solvedRun(points: PointResult[], d: Draft): RunState {
+function solvedRun(points: AssessedPoint[], d: Draft): RunState {
   const s = normalised(d);
   let r = preparedRun(startedRun(1, s, d, [], 2, 0), {
     order: 4, pointsPerWavelength: 6, topFrequencyHz: 500, absorberKind: 'discrete', layers: 3, elements: 1, dofs: 1, nnz: 1, factorNonzeros: 1, factorFlops: 1, memoryEstimateBytes: 1,
@@ -96,7 +98,7 @@ function solvedRun(points: PointResult[], d: Draft): RunState {
 
 describe('results', () => {
   const d = setAt(demo('plant-room-supply-silencer'), 'sweep', { frequenciesHz: [125, 250, 500] });
-  const run = solvedRun([ductPoint(250, 20), ductPoint(125, 10), ductPoint(500, 5, { energyBalance: 0.02 })], d);
+  const run = solvedRun([ductPoint(250, 20), ductPoint(125, 10), ductPoint(500, 5, { energyBalance: 0.02 }, ['energy', 'plane_wave_invalid'])], d);
   it('export the spectrum exactly as the report builds it, rows ascending', () => {
     const report = runReport(run, 0)!;
     const rows = parseCsv(tableCsv(report.spectrum));
@@ -115,6 +117,8 @@ describe('results', () => {
   it('plot TL on a log axis, mark cut-ons inside the range and flag the doubtful point', () => {
     const fig = spectrumFigure(run);
     expect(fig.data[0]).toMatchObject({ type: 'scatter', x: [125, 250, 500], y: [10, 20, 5] });
+    // the plane-wave estimate only where it holds (below the first cut-on)
+    expect(fig.data.find((t) => String(t.name).startsWith('TL, plane-wave theory'))).toMatchObject({ x: [125, 250], y: [9.5, 19.5] });
     expect(fig.layout.xaxis).toMatchObject({ type: 'log', ticktext: ['125', '160', '200', '250', '315', '400', '500'] });
     const shapes = fig.layout.shapes as { x0: number }[];
     expect(shapes.map((s) => s.x0)).toEqual([381]);
@@ -122,9 +126,13 @@ describe('results', () => {
     expect(flagged.x).toEqual([500]);
     expect(fig.data.every((t) => !String(t.type).endsWith('gl'))).toBe(true);
   });
-  it('flag energy balance above 1e-3, reflections above 1 and negative TL, and nothing else', () => {
+  it('flag the engine\'s accuracy flags, reflections above 1 and negative TL, and nothing else', () => {
     expect(pointFlags(ductPoint(100, 3))).toEqual([]);
-    expect(pointFlags(ductPoint(100, 3, { energyBalance: 2e-3 }))[0]).toMatch(/^energy balance 0\.002 is above 0\.001/);
+    expect(pointFlags(ductPoint(100, 3, {}, ['energy']), { energy: 'power is lost' })).toEqual(['energy: power is lost']);
+    expect(pointFlags(ductPoint(100, 3, {}, ['plane_wave_invalid']))).toEqual([]);
+    const bare = { ...ductPoint(100, 3, { energyBalance: 2e-3 }) } as Partial<AssessedPoint>;
+    delete bare.accuracy;
+    expect(pointFlags(bare as AssessedPoint)[0]).toMatch(/^energy balance 0\.002 is above 0\.001/);
     expect(pointFlags(ductPoint(100, 3, { inletReflection: 1.05 }))[0]).toMatch(/above 1/);
     expect(pointFlags(ductPoint(100, -0.5))[0]).toMatch(/below 0/);
   });

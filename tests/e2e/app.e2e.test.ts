@@ -130,6 +130,10 @@ describe('quietgrid in the browser', () => {
     expect(rows[0].slice(0, 2)).toEqual(['frequency_hz', 'tl_db']);
     expect(rows.slice(1).map((r) => Number(r[0]))).toEqual([125, 250, 400]);
     expect(rows.slice(1).every((r) => Number.isFinite(Number(r[1])))).toBe(true);
+    const [png] = await Promise.all([page.waitForEvent('download'), page.click('button:has-text("Plot PNG")')]);
+    expect(png.suggestedFilename()).toBe('plant-room-supply-silencer-spectrum.png');
+    // PNG signature (ISO/IEC 15948): 89 50 4E 47 0D 0A 1A 0A
+    expect([...readFileSync((await png.path())!).subarray(0, 8)]).toEqual([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]);
   });
 
   it('opens a scenario file and lists it among the recent files', async () => {
@@ -158,7 +162,7 @@ describe('quietgrid in the browser', () => {
     expect(r.points.length).toBeGreaterThanOrEqual(1);
     expect(r.points.length).toBeLessThan(8);
     expect(r.statuses.filter((s) => s === 'unsolved').length).toBe(8 - r.points.length);
-    await hasCount(page.locator('.segments li.unsolved'), 8 - r.points.length);
+    await hasCount(page.locator('.segments li.unsolved:not(.check)'), 8 - r.points.length);
     await page.click('#tab-results');
     await expect.poll(async () => (await plotData('spectrum'))?.traces[0]?.n).toBe(r.points.length);
     await hasText(page.locator('[data-testid="results-summary"]'), 'cancelled');

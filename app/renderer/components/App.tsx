@@ -98,7 +98,7 @@ export function App({ controller: c }: { controller: Controller }) {
           <button type="button" className="link" onClick={a.dismissNotice} aria-label="Dismiss">✕</button>
         </div>
       )}
-      <RunBar status={run.status} blocker={blocker} frequencies={run.frequencies} progress={progress} workers={run.workers} onRun={a.run} onCancel={a.cancel} />
+      <RunBar status={run.status} blocker={blocker} frequencies={run.frequencies} checks={run.checks} progress={progress} workers={run.workers} onRun={a.run} onCancel={a.cancel} />
       <Tabs active={ui.tab} onSelect={a.setTab} badges={badges} />
       <main id={`panel-${ui.tab}`} role="tabpanel" aria-labelledby={`tab-${ui.tab}`} className={`panel panel-${ui.tab}`}>
         {ui.tab === 'sketch' && (
@@ -109,7 +109,7 @@ export function App({ controller: c }: { controller: Controller }) {
           <SweepView form={form} frequenciesHz={v.ok ? v.scenario.sweep.frequenciesHz : null} estimate={estimate} calibration={c.calibration()}
             cores={c.env.cores} workers={ui.workers} allowLarge={ui.allowLarge} onAllowLarge={a.setAllowLarge}
             quickSize={v.ok && editor.derived.geometry ? estimateSize(v.scenario, editor.derived.geometry) : null}
-            onSweepForm={(f) => a.apply((d) => changeSweepForm(d, f, v.ok ? v.scenario.sweep.frequenciesHz : []))} onWorkers={a.setWorkers} />
+            onSweepForm={(f) => a.apply((d) => changeSweepForm(d, f, v.ok ? v.scenario.sweep.frequenciesHz : []))} onWorkers={a.setWorkers} orderCheck={ui.orderCheck} onOrderCheck={a.setOrderCheck} />
         )}
         {ui.tab === 'results' && (
           <ResultsView run={run} report={report} bands={bands} bandFraction={ui.bandFraction} cautions={CAUTIONS} onBandFraction={a.setBandFraction}

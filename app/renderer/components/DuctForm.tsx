@@ -1,5 +1,6 @@
 /** The duct's parts as fields: sections in order, side branches, linings, outlet, incident wave. */
 import { LINING_MATERIALS } from '../../../engine/acoustics/materials.ts';
+import { DEFAULT_LINING_MODEL } from '../../../engine/scenario/validate-linings.ts';
 import { addBranch, addLining, addSection, getAt, isObject, moveItem, removeItem, removeSection, renameSection, type Draft, type Json } from '../model/draft.ts';
 import { BoundaryField, ItemButtons, NumberField, SelectField, TextField, type Form } from './form.tsx';
 
@@ -98,6 +99,7 @@ export function LiningsFieldset({ form, actions }: { form: Form; actions: ListAc
       {linings.map((l, i) => {
         const p = `linings[${i}]`, faces = getAt(form.draft, `${p}.faces`), chosen = Array.isArray(faces) ? faces : [];
         const material = getAt(form.draft, `${p}.material`), library = isObject(material) && typeof material.library === 'string' ? material.library : null;
+        const model = isObject(material) && typeof material.model === 'string' ? material.model : null;
         const toggle = (face: string) => form.onSet(`${p}.faces`, chosen.includes(face) ? chosen.filter((f) => f !== face) : [...chosen, face]);
         return (
           <div className="item" key={i} data-item={p}>
@@ -119,11 +121,10 @@ export function LiningsFieldset({ form, actions }: { form: Form; actions: ListAc
               <NumberField form={form} path={`${p}.thickness`} label="Thickness" unit="length" />
               <SelectField form={form} path={`${p}.material.library`} label="Material" value={library ?? 'custom'}
                 options={[...LINING_MATERIALS.map((m) => ({ value: m.id, label: m.label })), { value: 'custom', label: 'Other: give flow resistivity' }]}
-                onChange={(v) => form.onSet(`${p}.material`, v === 'custom' ? { model: 'delany-bazley', flowResistivity: 20000 } : { library: v })} />
-              {library === null && <>
-                <SelectField form={form} path={`${p}.material.model`} label="Model" options={[{ value: 'delany-bazley', label: 'Delany & Bazley (1970)' }, { value: 'miki', label: 'Miki (1990)' }]} />
-                <NumberField form={form} path={`${p}.material.flowResistivity`} label="Flow resistivity σ" unit="Pa·s/m²" />
-              </>}
+                onChange={(v) => form.onSet(`${p}.material`, v === 'custom' ? { model: model ?? DEFAULT_LINING_MODEL, flowResistivity: 20000 } : { ...(model ? { model } : {}), library: v })} />
+              <SelectField form={form} path={`${p}.material.model`} label="Model" value={model ?? DEFAULT_LINING_MODEL}
+                options={[{ value: 'delany-bazley', label: 'Delany & Bazley (1970)' }, { value: 'miki', label: 'Miki (1990)' }]} />
+              {library === null && <NumberField form={form} path={`${p}.material.flowResistivity`} label="Flow resistivity σ" unit="Pa·s/m²" />}
             </div>
           </div>
         );

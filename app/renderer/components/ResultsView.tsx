@@ -44,7 +44,8 @@ export function Cautions({ cautions }: { cautions: readonly Caution[] }) {
 function cellText(v: unknown, header: string): string {
   if (v === null || v === undefined || v === '') return '–';
   if (typeof v !== 'number') return String(v);
-  if (header === 'energy_balance' || header === 'inlet_reflection' || header === 'inlet_absorption') return formatNumber(v, 3);
+  if (header === 'energy_balance' || header === 'inlet_reflection' || header === 'inlet_absorption' || header === 'reflection_estimate') return formatNumber(v, 3);
+  if (header === 'order_check_db') return v.toFixed(2);
   if (header.endsWith('_hz') || header === 'points') return formatNumber(v, 5);
   return v.toFixed(1);
 }
@@ -73,7 +74,8 @@ export function ResultsView(p: ResultsProps) {
   if (run.status === 'idle' || !run.scenario) {
     return <div className="results empty-state"><p>No results yet. Sketch the duct or room, choose the sweep, then press <strong>Run sweep</strong>.</p><Cautions cautions={p.cautions} /></div>;
   }
-  const flagged = run.points.map((pt) => ({ f: pt.frequencyHz, reasons: pointFlags(pt) })).filter((x) => x.reasons.length > 0);
+  const flagged = run.points.map((pt) => ({ f: pt.frequencyHz, reasons: pointFlags(pt, run.accuracy?.flagMeanings) })).filter((x) => x.reasons.length > 0);
+  const checked = run.checks.filter((c) => c.status === 'done');
   const failed = run.frequencies.filter((s) => s.status === 'failed');
   const info = run.info;
   return (
@@ -84,6 +86,7 @@ export function ResultsView(p: ResultsProps) {
             {run.points.length} of {run.frequencies.length} frequencies solved
             {info && <> · order {info.order}, {info.dofs.toLocaleString('en')} unknowns</>}
             {run.finishedAt !== null && <> · {formatSeconds((run.finishedAt - run.startedAt) / 1000)}</>}
+            {checked.length > 0 && <> · order checked at {checked.map((c) => formatHz(c.frequencyHz)).join(', ')}</>}
             {run.status === 'cancelled' && <> · cancelled</>}
           </p>
           <div className="buttons">
@@ -116,7 +119,7 @@ export function ResultsView(p: ResultsProps) {
         {bands && bandsFig ? <>
           <PlotlyChart name="bands" data={bandsFig.data} layout={bandsFig.layout} height={280} label="Band values" />
           <DataTable table={bands} receiverColumns={receiverColumns} hide={['bandwidth', 'band_low_hz', 'band_high_hz']}
-            caption={`${p.bandFraction === 1 ? 'Octave' : 'Third-octave'} bands (IEC 61260-1); TL from the mean transmitted power in each band`} />
+            caption={`${p.bandFraction === 1 ? 'Octave' : 'Third-octave'} bands (IEC 61260-1); ${kind === 'duct' ? 'TL from the mean transmitted power in each band' : 'levels as energy means of the points in each band'}`} />
         </> : <p className="muted">No band values yet.</p>}
         {bands && bands.header.includes('source_lw_db') && p.bandFraction === 3 && (
           <p className="muted">The source sound power is given per octave band: choose <em>Octave</em> to see the outlet sound power and its A-weighted total.</p>

@@ -23,6 +23,8 @@ export interface SweepProps {
   onAllowLarge(on: boolean): void;
   onSweepForm(form: SweepForm): void;
   onWorkers(n: number | null): void;
+  orderCheck: boolean;
+  onOrderCheck(on: boolean): void;
 }
 
 const FORMS: { value: SweepForm; label: string }[] = [
@@ -83,7 +85,7 @@ function EstimateCard({ estimate, frequencies, workers, calibration, quickSize, 
   );
 }
 
-export function SweepView({ form, frequenciesHz, estimate, calibration, cores, workers, allowLarge, quickSize, onAllowLarge, onSweepForm, onWorkers }: SweepProps) {
+export function SweepView({ form, frequenciesHz, estimate, calibration, cores, workers, allowLarge, quickSize, onAllowLarge, onSweepForm, onWorkers, orderCheck, onOrderCheck }: SweepProps) {
   const kind = sweepForm(form.draft), n = frequenciesHz?.length ?? 0;
   const usedWorkers = Math.max(1, Math.min(workers ?? cores, Math.max(1, n)));
   return (
@@ -126,6 +128,10 @@ export function SweepView({ form, frequenciesHz, estimate, calibration, cores, w
               options={[{ value: 'discrete', label: 'per layer (default)' }, { value: 'constant', label: 'constant' }, { value: 'smooth', label: 'smooth' }]} />
             <NumberField form={form} path="absorber.thickness" label="Stack thickness" unit="length" optional placeholder="auto" className="narrow" />
           </div>
+          <label className="check order-check">
+            <input type="checkbox" checked={orderCheck} onChange={(e) => onOrderCheck(e.target.checked)} />
+            {' '}Order check: after the sweep, solve the top frequency and two more again at element order {Number(getAt(form.draft, 'mesh.order') ?? 4) + 1} and flag results that move by more than 0.5 dB
+          </label>
         </fieldset>
         <fieldset className="group">
           <legend>Workers</legend>

@@ -50,13 +50,18 @@ export function spectrumFigure(run: RunState): Figure {
       type: 'scatter', mode: 'lines+markers', name: 'TL (transmitted power)', x: duct.map((p) => p.frequencyHz), y: duct.map((p) => p.tlDb),
       line: { color: PALETTE[0], width: 2.2 }, marker: { size: 6 }, hovertemplate: 'TL %{y:.2f} dB at %{x:.4g} Hz<extra></extra>',
     });
+    const plane = duct.filter((p) => p.accuracy?.planeWaveValid && p.accuracy.tlPlaneDb !== null);
+    if (plane.length > 0) data.push({
+      type: 'scatter', mode: 'lines', name: 'TL, plane-wave theory (below cut-on)', x: plane.map((p) => p.frequencyHz), y: plane.map((p) => p.accuracy.tlPlaneDb),
+      line: { color: PALETTE[3], width: 1.4, dash: 'dash' }, hovertemplate: 'plane-wave theory %{y:.2f} dB at %{x:.4g} Hz<extra></extra>',
+    });
     const dec = duct.filter((p) => p.tlDecompositionDb !== null);
     if (dec.length > 0) data.push({
       type: 'scatter', mode: 'markers', name: 'TL (plane-wave decomposition, a cross-check)', x: dec.map((p) => p.frequencyHz), y: dec.map((p) => p.tlDecompositionDb),
       marker: { color: PALETTE[2], size: 9, symbol: 'x-thin-open', line: { width: 1.5, color: PALETTE[2] } }, hovertemplate: 'plane waves %{y:.2f} dB at %{x:.4g} Hz<extra></extra>',
     });
   }
-  const flagged = pts.map((p) => ({ p, reasons: pointFlags(p) })).filter((x) => x.reasons.length > 0);
+  const flagged = pts.map((p) => ({ p, reasons: pointFlags(p, run.accuracy?.flagMeanings) })).filter((x) => x.reasons.length > 0);
   if (flagged.length > 0) data.push({
     type: 'scatter', mode: 'markers', name: 'check these points', x: flagged.map((x) => x.p.frequencyHz),
     y: flagged.map((x) => (x.p.kind === 'duct' ? x.p.tlDb : x.p.receivers[0]?.splDb ?? null)),

@@ -16,6 +16,11 @@ export function runReport(run: RunState, now: number): Report | null {
     scenario: run.scenario, info: run.info, cutOns: run.cutOns, points: run.points,
     frequenciesHz: run.frequencies.map((s) => s.frequencyHz), failures, warnings: run.warnings,
     totalSeconds: ((run.finishedAt ?? now) - run.startedAt) / 1000, peakMemoryBytes: null,
+    accuracy: run.accuracy ? {
+      ...run.accuracy,
+      orderCheckedHz: run.checks.filter((c) => c.status === 'done').map((c) => c.frequencyHz),
+      orderCheckFailures: run.checks.flatMap((c) => (c.status === 'failed' ? [{ frequencyHz: c.frequencyHz, message: c.message ?? 'failed' }] : [])),
+    } : undefined,
   });
 }
 
@@ -52,6 +57,10 @@ export const COLUMN_LABELS: Record<string, string> = {
   inlet_absorption: 'Inlet absorption',
   energy_balance: 'Energy balance',
   method: 'Method',
+  reflection_estimate: 'Layer |R| (predicted)',
+  order_check_db: 'Order check, dB',
+  tl_plane_db: 'TL plane-wave theory, dB',
+  flags: 'Flags',
   band_hz: 'Band, Hz',
   band_low_hz: 'From, Hz',
   band_high_hz: 'To, Hz',

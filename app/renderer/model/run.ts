@@ -3,7 +3,9 @@
  * reports. The fields themselves are not here (they go to the field worker); only which were kept.
  */
 import type { Issue, NormalisedScenario } from '../../../engine/scenario/index.ts';
-import type { MeshInfo, PointResult } from '../../../engine/solve/scenario.ts';
+import type { MeshInfo } from '../../../engine/solve/scenario.ts';
+import type { PointAccuracy } from '../../../engine/solve/accuracy.ts';
+import type { AccuracyInfo, AssessedPoint } from '../protocol.ts';
 import type { DuctMode } from '../../../engine/acoustics/index.ts';
 
 export type FrequencyStatus = 'queued' | 'solving' | 'done' | 'failed' | 'unsolved';
@@ -17,6 +19,9 @@ export interface FrequencyState {
   message?: string;
 }
 
+/** An order check: the frequency solved again at element order p + 1. */
+export interface CheckState { frequencyHz: number; status: 'queued' | 'solving' | 'done' | 'failed' | 'dropped'; message?: string }
+
 export type RunStatus = 'idle' | 'preparing' | 'running' | 'done' | 'cancelled' | 'failed';
 
 export interface RunState {
@@ -27,8 +32,10 @@ export interface RunState {
   input: unknown;
   warnings: readonly Issue[];
   frequencies: readonly FrequencyState[];
-  /** Solved points, ascending in frequency, without their fields. */
-  points: readonly PointResult[];
+  /** Solved points, ascending in frequency, without their fields, each with its accuracy. */
+  points: readonly AssessedPoint[];
+  checks: readonly CheckState[];
+  accuracy: AccuracyInfo | null;
   info: MeshInfo | null;
   cutOns: readonly { section: string; modes: readonly DuctMode[] }[];
   workers: number;
@@ -40,7 +47,7 @@ export interface RunState {
 }
 
 export const IDLE_RUN: RunState = {
-  id: 0, status: 'idle', scenario: null, input: null, warnings: [], frequencies: [], points: [], info: null, cutOns: [],
+  id: 0, status: 'idle', scenario: null, input: null, warnings: [], frequencies: [], points: [], checks: [], accuracy: null, info: null, cutOns: [],
   workers: 0, startedAt: 0, finishedAt: null, fieldsHz: [], message: null,
 };
 
@@ -55,16 +62,34 @@ function update(run: RunState, f: number, change: (s: FrequencyState) => Frequen
   return { ...run, frequencies: run.frequencies.map((s) => (s.frequencyHz === f ? change(s) : s)) };
 }
 
-export function preparedRun(run: RunState, info: MeshInfo, cutOns: RunState['cutOns']): RunState {
-  return { ...run, status: 'running', info, cutOns };
+export function preparedRun(run: RunState, info: MeshInfo, cutOns: RunState['cutOns'], accuracy: AccuracyInfo | null = null, checkHz: readonly number[] = []): RunState {
+  return { ...run, status: 'running', info, cutOns, accuracy, checks: checkHz.map((f) => ({ frequencyHz: f, status: 'queued' })) };
+}
+
+function updateCheck(run: RunState, f: number, change: (c: CheckState) => CheckState): RunState {
+  return { ...run, checks: run.checks.map((c) => (c.frequencyHz === f ? change(c) : c)) };
+}
+
+export function checkStarted(run: RunState, f: number): RunState {
+  return updateCheck(run, f, (c) => ({ ...c, status: 'solving' }));
+}
+
+/** The order check's verdict replaces the point's accuracy (now with order_check_db and, maybe, the 'order' flag). */
+export function pointChecked(run: RunState, f: number, accuracy: PointAccuracy): RunState {
+  const points = run.points.map((p) => (p.frequencyHz === f ? { ...p, accuracy } : p));
+  return updateCheck({ ...run, points }, f, (c) => ({ ...c, status: 'done' }));
+}
+
+export function checkFailed(run: RunState, f: number, message: string): RunState {
+  return updateCheck(run, f, (c) => ({ ...c, status: 'failed', message }));
 }
 
 export function frequencyStarted(run: RunState, f: number, at: number): RunState {
   return update({ ...run, status: 'running' }, f, (s) => ({ ...s, status: 'solving', startedAt: at }));
 }
 
-export function frequencySolved(run: RunState, point: PointResult, at: number): RunState {
-  const bare = { ...point, field: undefined } as PointResult;
+export function frequencySolved(run: RunState, point: AssessedPoint, at: number): RunState {
+  const bare = { ...point, field: undefined } as AssessedPoint;
   delete (bare as { field?: unknown }).field;
   const points = [...run.points.filter((p) => p.frequencyHz !== point.frequencyHz), bare].sort((a, b) => a.frequencyHz - b.frequencyHz);
   return update({ ...run, points }, point.frequencyHz, (s) => ({ ...s, status: 'done', seconds: (at - (s.startedAt ?? at)) / 1000 }));
@@ -86,7 +111,8 @@ export function finishedRun(run: RunState, cancelled: boolean, unsolved: readonl
   const message = cancelled
     ? `Cancelled: ${run.points.length} of ${frequencies.length} frequencies solved and kept.`
     : failed.length > 0 ? `${failed.length} of ${frequencies.length} frequencies failed: ${failed[0].message ?? ''}` : null;
-  return { ...run, status, frequencies, finishedAt: at, message };
+  const checks = run.checks.map((c) => (c.status === 'queued' || c.status === 'solving' ? { ...c, status: 'dropped' as const } : c));
+  return { ...run, status, frequencies, checks, finishedAt: at, message };
 }
 
 export function isActive(run: RunState): boolean {
@@ -110,7 +136,9 @@ export function progressOf(run: RunState, now: number, predictedSecondsPerFreque
   if (perFrequency !== null) {
     const inFlight = run.frequencies.filter((s) => s.status === 'solving').map((s) => Math.max(0, perFrequency - (now - (s.startedAt ?? now)) / 1000));
     const workers = Math.max(1, run.workers);
-    remainingSeconds = Math.max(...inFlight, 0) + (queued * perFrequency) / workers;
+    // An order check solves at p + 1: count it as two frequencies.
+    const checksLeft = run.checks.filter((c) => c.status === 'queued').length;
+    remainingSeconds = Math.max(...inFlight, 0) + ((queued + 2 * checksLeft) * perFrequency) / workers;
     if (run.status === 'preparing') remainingSeconds += perFrequency;
   }
   return { done, failed, solving, total: run.frequencies.length, elapsedSeconds, remainingSeconds };
