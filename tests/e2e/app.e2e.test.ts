@@ -140,6 +140,16 @@ describe('quietgrid in the browser', () => {
     await page.locator('[data-testid="open-file"]').setInputFiles(join(REPO, 'scenarios/kitchen-extract-stub-resonator.json'));
     await hasText(page.locator('.doc-title'), /quarter-wave stub/);
     await hasCount(page.locator('select[aria-label="Open a recent file"] option', { hasText: 'kitchen-extract-stub-resonator.json' }), 1);
+    // Dropped on the window, a scenario file opens the same way.
+    const text = readFileSync(join(REPO, 'scenarios/generator-room-small.json'), 'utf8');
+    await page.evaluate((t) => {
+      const dt = new DataTransfer();
+      dt.items.add(new File([t], 'dropped-room.json', { type: 'application/json' }));
+      document.querySelector('.app')!.dispatchEvent(new DragEvent('drop', { dataTransfer: dt, bubbles: true, cancelable: true }));
+    }, text);
+    await hasText(page.locator('.doc-title'), /generator room/);
+    await hasText(page.locator('.doc-file'), 'dropped-room.json');
+    expect(await page.locator('[data-view="plan"] .marker.receiver').count()).toBe(2);
     await page.selectOption('select[aria-label="Load a demo scenario"]', 'plant-room-supply-silencer');
     await hasText(page.locator('.doc-title'), /expansion-chamber silencer/);
   });
