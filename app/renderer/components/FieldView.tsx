@@ -104,7 +104,7 @@ export function FieldView(p: FieldProps) {
         {p.status === 'loading' && 'Sampling the field…'}
         {p.status === 'error' && <span className="issue">{p.message}</span>}
         {p.status === 'ready' && p.slice && (p.animate
-          ? `Re{p·e^{jωt}} over one period at ${formatHz(p.slice.frequencyHz)} (colour range fixed at ± the peak amplitude).`
+          ? `Re{p·e^(jωt)} over one period at ${formatHz(p.slice.frequencyHz)} (colour range fixed at ± the peak amplitude).`
           : quantity === 'spl' ? 'Sound pressure level from the RMS pressure |p|/√2 re 20 µPa; blank where solid.' : 'Real part of the complex peak pressure at t = 0; blank where solid.')}
       </p>
       {figure && <PlotlyChart name="slice" data={figure.data} layout={figure.layout} height={460} onDrawn={onDrawn} label="Field slice" />}
