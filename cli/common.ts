@@ -5,9 +5,11 @@
  */
 import { parseArgs, type ParseArgsConfig } from 'node:util';
 import { basename, extname, join } from 'node:path';
-import { DEFAULT_MAX_BYTES, ScenarioError, formatIssues, parseScenarioText, validateScenario, type Issue, type NormalisedScenario } from '../engine/scenario/index.ts';
+import { freemem } from 'node:os';
+import { DEFAULT_MAX_BYTES, ScenarioError, buildGeometry, formatIssues, parseScenarioText, validateScenario, type Issue, type NormalisedScenario } from '../engine/scenario/index.ts';
+import { estimateSize, LARGE_PROBLEM_DOFS, ProblemTooLarge } from '../engine/solve/size.ts';
 import { describeFileError, readTextFile, writeFileAtomicIn } from '../engine/node/files.ts';
-import { meshOf, sectionCutOns, type PointResult, type Prepared } from '../engine/solve/scenario.ts';
+import { meshOf, prepareScenario, sectionCutOns, type PointResult, type Prepared } from '../engine/solve/scenario.ts';
 import { buildReport, tableCsv, type ReportFailure, type Summary } from '../engine/report/results.ts';
 import { ACCURACY_READING, FLAG_MEANINGS, THRESHOLDS, assessPoint, type PointAccuracy } from '../engine/solve/accuracy.ts';
 import { planeWaveValidBelowHz } from '../engine/solve/planewave.ts';
@@ -199,4 +201,27 @@ export function describeDefaults(s: NormalisedScenario): string[] {
 
 export function describeWarnings(warnings: readonly Issue[]): string[] {
   return warnings.length === 0 ? [] : ['Warnings:', ...formatIssues(warnings).split('\n').map((l) => `  ${l}`)];
+}
+
+/**
+ * The problem set up for solving, guarded: above the size limit only with --yes (a length typed in
+ * millimetres as metres should not take the machine down), and never when the factor would not fit in
+ * the free memory — that stops before any factorisation, with the estimate and the levers.
+ */
+export function prepareGuarded(loaded: Loaded, confirmed: boolean): Prepared {
+  const s = loaded.scenario, size = estimateSize(s, buildGeometry(s));
+  if (!confirmed && !(size.dofs <= LARGE_PROBLEM_DOFS)) throw new UsageError(`${loaded.path}: ${new ProblemTooLarge(size, LARGE_PROBLEM_DOFS).message}`);
+  let prepared: Prepared;
+  try {
+    prepared = prepareScenario(s, { maxDofs: Infinity });
+  } catch (e) {
+    // prepareScenario refuses what the engine cannot model, naming the field.
+    throw new UsageError(`${loaded.path}: cannot set up the problem: ${e instanceof Error ? e.message : String(e)}`);
+  }
+  const need = prepared.info.memoryEstimateBytes, free = freemem();
+  if (need > 0.8 * free) {
+    throw new UsageError(`${loaded.path}: one frequency needs about ${megabytes(need)} for its factor (estimated from the symbolic analysis) but only ${megabytes(free)} is free: ` +
+      'lower mesh.order or mesh.pointsPerWavelength, lower the sweep\'s top frequency, or split the sweep and solve the high frequencies on a larger machine (quietgrid solve --frequencies …)');
+  }
+  return prepared;
 }

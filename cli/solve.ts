@@ -3,9 +3,10 @@
  * spectrum.csv, bands.csv and summary.json; optionally the fields as .vtu files.
  */
 import { performance } from 'node:perf_hooks';
-import { prepareScenario, type PointResult, type Prepared } from '../engine/solve/scenario.ts';
+import type { PointResult, Prepared } from '../engine/solve/scenario.ts';
 import { defaultWorkerCount, solveFrequencies, type PointFailure, type PoolOutcome } from '../engine/node/pool.ts';
 import {
+  prepareGuarded,
   EXIT_FAILED, EXIT_INTERRUPTED, EXIT_OK, UsageError, defaultOutDir, describeDefaults, describeWarnings, fieldWriter, hz, loadScenario,
   megabytes, parseFrequencyList, parseOptions, parseWorkers, scenarioPath, writeReport, type Io, type Loaded,
 } from './common.ts';
@@ -36,6 +37,8 @@ Options:
   --check-order        re-solve every frequency at element order p + 1 (column order_check_db)
   --no-check-order     skip that check; by default it runs at the top frequency and two more
                        spread over the sweep (at most 3), in the same worker threads
+  --yes                run even when the scenario implies more than 250 000 unknowns (the
+                       run stops before solving otherwise, and says which levers shrink it)
   --help               this text
 
 Progress goes to stderr: a bar when it is a terminal, one line per frequency otherwise.
@@ -51,6 +54,7 @@ const OPTIONS = {
   workers: { type: 'string' },
   'check-order': { type: 'boolean' },
   'no-check-order': { type: 'boolean' },
+  yes: { type: 'boolean' },
   help: { type: 'boolean' },
 } as const;
 
@@ -71,7 +75,7 @@ export async function solveCommand(args: string[], io: Io): Promise<number> {
   const frequencies = values.frequencies !== undefined ? parseFrequencyList(values.frequencies, loaded.scenario) : [...loaded.scenario.sweep.frequenciesHz];
   const requestedWorkers = parseWorkers(values.workers);
   const checks = orderCheckFrequencies(frequencies, values['check-order'], values['no-check-order']);
-  const prepared = prepare(loaded);
+  const prepared = prepareGuarded(loaded, values.yes === true);
   describeRun(loaded, prepared, io);
   const jobs = frequencies.length + checks.length;
   const workers = requestedWorkers ?? defaultWorkerCount(jobs, prepared.info.memoryEstimateBytes);
@@ -104,14 +108,6 @@ export function describeFlags(byFrequency: readonly { frequencyHz: number; flags
   ];
 }
 
-function prepare(loaded: Loaded): Prepared {
-  try {
-    return prepareScenario(loaded.scenario);
-  } catch (e) {
-    // prepareScenario refuses what the engine cannot model yet, naming the field.
-    throw new UsageError(`${loaded.path}: cannot set up the problem: ${e instanceof Error ? e.message : String(e)}`);
-  }
-}
 
 function describeRun(loaded: Loaded, prepared: Prepared, io: Io): void {
   const { scenario: s } = loaded, i = prepared.info;

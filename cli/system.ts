@@ -3,11 +3,12 @@
  * solver as Matrix Market files, and that solver's answer back in as the usual report.
  */
 import { performance } from 'node:perf_hooks';
-import { prepareScenario, resultsFromSolution, systemAt, type Prepared } from '../engine/solve/scenario.ts';
+import { resultsFromSolution, systemAt } from '../engine/solve/scenario.ts';
 import { readMatrixMarketVector, relativeResidual, writeMatrixMarket, writeMatrixMarketVector } from '../engine/linalg/index.ts';
 import { describeFileError, readTextFile, writeFileAtomicIn } from '../engine/node/files.ts';
 import {
-  EXIT_OK, UsageError, defaultOutDir, fieldWriter, hz, loadScenario, parseFrequency, parseOptions, scenarioPath, writeReport, type Io, type Loaded,
+  prepareGuarded,
+  EXIT_OK, UsageError, defaultOutDir, fieldWriter, hz, loadScenario, parseFrequency, parseOptions, scenarioPath, writeReport, type Io,
 } from './common.ts';
 
 const ROUND_TRIP = `Round trip with another solver:
@@ -53,16 +54,9 @@ const MAX_SOLUTION_BYTES = 400_000_000;
 // Above this the solution does not belong to this system (wrong scenario, frequency or solver failure).
 const RESIDUAL_WARNING = 1e-6;
 
-const EXPORT_OPTIONS = { frequency: { type: 'string' }, out: { type: 'string' }, help: { type: 'boolean' } } as const;
+const EXPORT_OPTIONS = { frequency: { type: 'string' }, out: { type: 'string' }, yes: { type: 'boolean' }, help: { type: 'boolean' } } as const;
 const IMPORT_OPTIONS = { ...EXPORT_OPTIONS, solution: { type: 'string' }, fields: { type: 'string' } } as const;
 
-function prepared(loaded: Loaded): Prepared {
-  try {
-    return prepareScenario(loaded.scenario);
-  } catch (e) {
-    throw new UsageError(`${loaded.path}: cannot set up the problem: ${e instanceof Error ? e.message : String(e)}`);
-  }
-}
 
 /** A.mtx → A.rhs.mtx; any other name gets .rhs.mtx appended. */
 export function rhsPath(matrixPath: string): string {
@@ -85,7 +79,7 @@ export async function exportCommand(args: string[], io: Io): Promise<number> {
   const loaded = await loadScenario(scenarioPath('export-system', positionals));
   const f = parseFrequency('--frequency', values.frequency, loaded.scenario);
   if (values.out === undefined) throw new UsageError('--out A.mtx is required: the file for the matrix (the right-hand side goes beside it)');
-  const { A, b } = systemAt(prepared(loaded), f);
+  const { A, b } = systemAt(prepareGuarded(loaded, values.yes === true), f);
   const about = [`quietgrid system A x = b at f = ${f} Hz`, `scenario: ${loaded.path} (${loaded.scenario.title})`, 'unknowns: peak pressure, Pa, at the mesh nodes; time dependence e^{+jwt}'];
   const rhs = rhsPath(values.out);
   await writeFileAtomicIn(values.out, withComments(writeMatrixMarket(A), [...about, 'A: complex symmetric (not Hermitian), lower triangle']));
@@ -104,7 +98,7 @@ export async function importCommand(args: string[], io: Io): Promise<number> {
   const f = parseFrequency('--frequency', values.frequency, loaded.scenario);
   if (values.solution === undefined) throw new UsageError('--solution X.mtx is required: the solution vector from the other solver');
   const start = performance.now();
-  const p = prepared(loaded);
+  const p = prepareGuarded(loaded, values.yes === true);
   const x = await readSolution(values.solution, p.info.dofs);
   const { A, b } = systemAt(p, f);
   const residual = relativeResidual(A, x, b);

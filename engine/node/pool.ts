@@ -104,7 +104,7 @@ function inThisThread(scenario: NormalisedScenario, frequenciesHz: readonly numb
   let cancelled = false;
   const work = async (): Promise<PoolOutcome> => {
     const out = emptyOutcome(0);
-    const prepared = opts.prepared ?? prepareScenario(scenario);
+    const prepared = opts.prepared ?? prepareScenario(scenario, { maxDofs: Infinity });
     let finer: Prepared | Error | undefined;
     const jobs = jobsOf(frequenciesHz, opts.checkFrequencies);
     for (let i = 0; i < jobs.length; i++) {
@@ -142,7 +142,7 @@ function inThisThread(scenario: NormalisedScenario, frequenciesHz: readonly numb
 
 function prepareOrError(s: NormalisedScenario): Prepared | Error {
   try {
-    return prepareScenario(s);
+    return prepareScenario(s, { maxDofs: Infinity });
   } catch (e) {
     return e instanceof Error ? e : new Error(String(e));
   }

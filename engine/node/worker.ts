@@ -38,7 +38,7 @@ function checkOne(frequencyHz: number): void {
   try {
     if (finer === undefined) {
       try {
-        finer = prepareScenario(finerScenario(setup.scenario));
+        finer = prepareScenario(finerScenario(setup.scenario), { maxDofs: Infinity });
       } catch (e) {
         finer = e instanceof Error ? e : new Error(String(e));
       }
@@ -52,7 +52,7 @@ function checkOne(frequencyHz: number): void {
 
 let prepared: Prepared | undefined;
 try {
-  prepared = prepareScenario(setup.scenario);
+  prepared = prepareScenario(setup.scenario, { maxDofs: Infinity }); // the client (CLI: --yes) has already decided on the size
   post({ type: 'ready' });
 } catch (e) {
   post({ type: 'fatal', message: messageOf(e) });

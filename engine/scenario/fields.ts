@@ -28,6 +28,9 @@ export const LIMITS = {
   maxFrequencyHz: 20_000,
   /** Most frequencies one scenario may ask for: each is a full 3D factorisation. */
   maxFrequencies: 400,
+  /** Duct dimensions, m: below a millimetre it is no duct (and arithmetic underflows); above 10 km it is a typing slip. */
+  minDimension: 0.001,
+  maxDimension: 10_000,
   maxSections: 64,
   maxBranches: 64,
   maxSources: 32,

@@ -10,7 +10,7 @@ import { checkDuctRules, type DuctContext } from './duct-rules.ts';
 import { readBoundary } from './validate-boundary.ts';
 import type { NormalisedBranch, NormalisedDuct, NormalisedSection, Termination } from './types.ts';
 
-const LENGTH = { unit: 'm', above: 0 } as const;
+const LENGTH = { unit: 'm', min: LIMITS.minDimension, max: LIMITS.maxDimension } as const;
 
 export function readDuct(ck: Checker, value: Found, context: DuctContext): NormalisedDuct | undefined {
   const duct = readObject(ck, value, 'duct', 'the duct');
