@@ -1,31 +1,261 @@
 /**
- * npm run bench — what one frequency of a 3D duct costs: dofs, nonzeros, fill, and the time of each phase,
- * for an expansion-chamber silencer meshed at three sizes (the largest near 50 000 dofs). Timings are
- * printed, never asserted: they belong here, not in the tests.
+ * npm run bench — speed and scale of one machine, measured side by side in one run, written to
+ * bench/RESULTS.md (and printed):
+ *   1. factorisation of assembled 3D duct systems at three sizes and orders: ours against SciPy's SuperLU
+ *      (and Octave's backslash) on the same matrix exported as Matrix Market;
+ *   2. assembly time as a fraction of factor time;
+ *   3. the symbolic memory estimate against the measured peak of the factorisation (one child process per size);
+ *   4. a 24-frequency sweep with 1 and 2 workers through the command line;
+ *   5. start-up: the smallest demo scenario end to end;
+ *   6. the longest elongated duct whose solve fits in 8 GiB by the estimate.
+ * Options: --only=small,medium (factor cases), --skip=sweep,startup,largest,reference.
+ * External references are used when present and never installed here: SciPy from Debian
+ * (apt-get install -y python3-scipy, run as /usr/bin/python3), Octave (apt-get install -y octave).
+ * Timings are printed and recorded, never asserted.
  */
+import { execFileSync, spawnSync } from 'node:child_process';
+import { mkdtempSync, readFileSync, rmSync, writeFileSync, existsSync, readdirSync } from 'node:fs';
+import { cpus, freemem, totalmem, tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { fileURLToPath } from 'node:url';
 import { readScenario } from '../engine/scenario/index.ts';
-import { prepareScenario, solvePoint } from '../engine/solve/scenario.ts';
+import { prepareScenario } from '../engine/solve/scenario.ts';
+import { chamberScenario, FACTOR_CASES, type DuctCase } from './scenarios.ts';
 
-const now = () => performance.now();
+const root = fileURLToPath(new URL('..', import.meta.url));
+const args = process.argv.slice(2);
+const flag = (name: string): string[] => args.find((a) => a.startsWith(`--${name}=`))?.split('=')[1].split(',') ?? [];
+const only = flag('only'), skip = new Set(flag('skip'));
+const md: string[] = [];
+const say = (line = '') => { console.log(line); md.push(line); };
+const fmt = (v: number, d = 2) => (Number.isFinite(v) ? v.toFixed(d) : '—');
+const mb = (b: number) => (b / 2 ** 20).toFixed(0);
+const GIB = 2 ** 30;
 
-function silencer(topHz: number): string {
-  return JSON.stringify({
-    format: 'quietgrid/1', title: 'bench: expansion chamber',
-    sweep: { frequenciesHz: [topHz] }, mesh: { order: 4, pointsPerWavelength: 8 },
-    duct: { sections: [{ name: 'in', length: 0.6, width: 0.2, height: 0.15 }, { name: 'chamber', length: 0.8, width: 0.6, height: 0.45 }, { name: 'out', length: 0.6, width: 0.2, height: 0.15 }] },
-  });
+function table(header: string[], rows: string[][]): void {
+  say(`| ${header.join(' | ')} |`);
+  say(`|${header.map(() => '---').join('|')}|`);
+  for (const r of rows) say(`| ${r.join(' | ')} |`);
+  say();
 }
 
-const rows: string[][] = [['top Hz', 'dofs', 'nnz(A)', 'nnz(L)', 'fill L/A', 'GFlop', 'memory est. MB', 'prepare s', 'assemble s', 'factor s', 'solve s', 'GFlop/s']];
-for (const topHz of [800, 1250, 2000]) {
-  const t0 = now();
-  const p = prepareScenario(readScenario(silencer(topHz)).scenario);
-  const t1 = now();
-  const r = solvePoint(p, topHz, now);
-  const i = p.info, fill = i.factorNonzeros / ((i.nnz + i.dofs) / 2);
-  rows.push([String(topHz), String(i.dofs), String(i.nnz), String(i.factorNonzeros), fill.toFixed(2), (i.factorFlops / 1e9).toFixed(2), (i.memoryEstimateBytes / 2 ** 20).toFixed(0),
-    ((t1 - t0) / 1000).toFixed(2), r.stats.assembleSeconds.toFixed(2), r.stats.factorSeconds.toFixed(2), r.stats.solveSeconds.toFixed(2), (i.factorFlops / 1e9 / r.stats.factorSeconds).toFixed(2)]);
+// ---- machine ----
+function machine(): string[] {
+  const cpuinfo = existsSync('/proc/cpuinfo') ? readFileSync('/proc/cpuinfo', 'utf8') : '';
+  const model = /model name\s*:\s*(.+)/.exec(cpuinfo)?.[1] ?? cpus()[0]?.model ?? 'unknown';
+  let nproc = String(cpus().length);
+  try { nproc = execFileSync('nproc', { encoding: 'utf8' }).trim(); } catch { /* keep os.cpus() */ }
+  return [`- date: ${new Date().toISOString()}`, `- nproc: ${nproc}`, `- CPU: ${model}`,
+    `- memory: ${(totalmem() / GIB).toFixed(1)} GiB total, ${(freemem() / GIB).toFixed(1)} GiB free at start`, `- node: ${process.version}`];
 }
-const widths = rows[0].map((_, c) => Math.max(...rows.map((r) => r[c].length)));
-for (const r of rows) console.log(r.map((v, c) => v.padStart(widths[c])).join('  '));
-console.log('\nfill: nonzeros of L against the lower triangle of A; prepare = grid, numbering, pattern and symbolic analysis (once per geometry).');
+
+// ---- external references ----
+function scipyVersion(): string | null {
+  const r = spawnSync('/usr/bin/python3', ['-c', 'import scipy; print(scipy.__version__)'], { encoding: 'utf8' });
+  return r.status === 0 ? r.stdout.trim() : null;
+}
+function octaveVersion(): string | null {
+  const r = spawnSync('octave', ['--version'], { encoding: 'utf8' });
+  return r.status === 0 ? (r.stdout.split('\n')[0] ?? 'octave') : null;
+}
+
+interface Ours {
+  name: string; order: number; topHz: number; chamberLength: number; dofs: number; nnzA: number; nnzL: number; storedEntries: number; flops: number;
+  memoryBytes: number; peakBytes: number; peakReset: boolean; analyseSeconds: number; assembleSeconds: number; factorSeconds: number; solveSeconds: number; residual: number;
+}
+interface Splu { ordering: string; factorSeconds: number; solveSeconds: number; nnzL: number; nnzU: number; residual: number }
+interface OctaveRun { seconds: number; residual: number }
+
+function runCase(c: DuctCase, dir: string): Ours {
+  const r = spawnSync(process.execPath, ['--expose-gc', '--import', 'tsx', join(root, 'bench/factor-case.ts'), c.name, dir], { cwd: root, encoding: 'utf8', maxBuffer: 1 << 24 });
+  if (r.status !== 0) throw new Error(`factor case ${c.name} failed:\n${r.stderr}`);
+  return JSON.parse(r.stdout.trim().split('\n').pop()!) as Ours;
+}
+
+function runScipy(dir: string): Splu[] {
+  const r = spawnSync('/usr/bin/python3', [join(root, 'bench/scipy_splu.py'), join(dir, 'A.mtx'), join(dir, 'b.mtx'), 'MMD_AT_PLUS_A', 'COLAMD'], { encoding: 'utf8', maxBuffer: 1 << 24 });
+  if (r.status !== 0) { console.error(`scipy failed: ${r.stderr}`); return []; }
+  return r.stdout.trim().split('\n').map((l) => JSON.parse(l) as Splu);
+}
+
+/** Octave has no Matrix Market reader: the triplets are read with fscanf, the lower triangle mirrored. */
+function runOctave(dir: string): OctaveRun | null {
+  const script = `
+function [A] = readmm(p)
+  f = fopen(p); l = fgetl(f); sym = ~isempty(strfind(lower(l), 'symmetric')); l = fgetl(f);
+  while l(1) == '%', l = fgetl(f); end
+  s = sscanf(l, '%d'); T = fscanf(f, '%f', [4, Inf]); fclose(f);
+  A = sparse(T(1,:), T(2,:), T(3,:) + 1i*T(4,:), s(1), s(2));
+  if sym, A = A + tril(A, -1).'; end
+end
+function [v] = readvec(p)
+  f = fopen(p); l = fgetl(f); l = fgetl(f); s = sscanf(l, '%d'); T = fscanf(f, '%f', [2, Inf]); fclose(f);
+  v = (T(1,:) + 1i*T(2,:)).';
+end
+A = readmm('${join(dir, 'A.mtx')}'); b = readvec('${join(dir, 'b.mtx')}');
+tic; x = A \\ b; t = toc;
+printf('%.6f %.6e\\n', t, norm(A*x - b) / norm(b));
+`;
+  const file = join(dir, 'run.m');
+  writeFileSync(file, `1;\n${script}`);
+  const r = spawnSync('octave', ['--no-gui', '--quiet', file], { encoding: 'utf8' });
+  if (r.status !== 0) return null;
+  const [t, res] = r.stdout.trim().split(/\s+/).map(Number);
+  return { seconds: t, residual: res };
+}
+
+// ---- 1–3: factorisation, assembly, memory ----
+const scipy = skip.has('reference') ? null : scipyVersion(), octave = skip.has('reference') ? null : octaveVersion();
+const cases = FACTOR_CASES.filter((c) => only.length === 0 || only.includes(c.name));
+say('# quietgrid bench results');
+say();
+say('Generated by `npm run bench` (bench/run.ts); every figure below comes from one run of that command on this machine.');
+say();
+for (const l of machine()) say(l);
+say(`- SciPy: ${scipy ? `${scipy} (Debian python3-scipy, /usr/bin/python3)` : 'absent — install with `apt-get install -y python3-scipy` to get the SciPy columns'}`);
+say(`- Octave: ${octave ?? 'absent — install with `apt-get install -y octave` to get the Octave column'}`);
+say();
+
+const results: { c: DuctCase; ours: Ours; splu: Splu[]; oct: OctaveRun | null }[] = [];
+for (const c of cases) {
+  const dir = mkdtempSync(join(tmpdir(), `quietgrid-bench-${c.name}-`));
+  try {
+    console.error(`factor case ${c.name} (order ${c.order}, ${c.topHz} Hz, chamber ${c.chamberLength} m) …`);
+    const ours = runCase(c, dir);
+    console.error(`  ours: ${ours.dofs} dofs, factor ${fmt(ours.factorSeconds)} s`);
+    const splu = scipy ? runScipy(dir) : [];
+    for (const s of splu) console.error(`  SciPy ${s.ordering}: factor ${fmt(s.factorSeconds)} s`);
+    const oct = octave ? runOctave(dir) : null;
+    results.push({ c, ours, splu, oct });
+  } finally {
+    rmSync(dir, { recursive: true, force: true });
+  }
+}
+
+if (results.length > 0) {
+  say('## 1. Factorisation of assembled duct systems');
+  say();
+  say('Scenario: an elongated expansion chamber (0.25 × 0.2 m runs of 0.5 m, a 0.5 × 0.4 m chamber of the length given), 8 points per wavelength at the top frequency, assembled with `prepareScenario` + `systemAt` at that frequency (bench/scenarios.ts).');
+  say('Ours = lattice nested dissection + symbolic analysis (`analyzeMesh`), multifrontal LDLᵀ (`factor`), one `solve`, single thread. SciPy = `scipy.sparse.linalg.splu` (SuperLU, partial pivoting with its default threshold) on the same matrix read from the Matrix Market file, factor + solve timed inside Python, reading excluded.');
+  say();
+  table(['case', 'order', 'dofs', 'nnz(A)', 'nnz(L) ours', 'GFlop', 'analyse s', 'factor s', 'solve s', 'ours total s', 'GFlop/s', 'residual'],
+    results.map(({ c, ours: o }) => [c.name, String(o.order), String(o.dofs), String(o.nnzA), String(o.nnzL), fmt(o.flops / 1e9, 1), fmt(o.analyseSeconds), fmt(o.factorSeconds), fmt(o.solveSeconds, 3),
+      fmt(o.analyseSeconds + o.factorSeconds + o.solveSeconds), fmt(o.flops / 1e9 / o.factorSeconds), o.residual.toExponential(1)]));
+  if (scipy) {
+    say('Fill is compared like with like: SuperLU stores L (unit diagonal included) and U (diagonal included) for both triangles, so its factor has nnz(L) + nnz(U) − n distinct entries; our LDLᵀ stores one triangle, the same factorisation written out in full would have 2·nnz(L) − n. "fill ratio" = (2·nnz(L) − n) / (nnz(L)+nnz(U) − n) of SuperLU; "stored ratio" = our nnz(L) / SuperLU\'s nnz(L)+nnz(U) − n (what each keeps in memory, in complex entries). Time ratio = ours (analyse + factor + solve) / SuperLU (factor + solve; its ordering is inside splu).');
+    say();
+    const rows: string[][] = [];
+    for (const { c, ours: o, splu, oct } of results) {
+      const ourT = o.analyseSeconds + o.factorSeconds + o.solveSeconds;
+      for (const s of splu) {
+        const theirs = s.nnzL + s.nnzU - o.dofs;
+        rows.push([c.name, s.ordering, fmt(s.factorSeconds), fmt(s.solveSeconds, 3), String(theirs), fmt(ourT / (s.factorSeconds + s.solveSeconds)), fmt((2 * o.nnzL - o.dofs) / theirs), fmt(o.nnzL / theirs), s.residual.toExponential(1)]);
+      }
+      if (oct) rows.push([c.name, 'Octave A\\b', fmt(oct.seconds), '(in total)', '—', fmt(ourT / oct.seconds), '—', '—', oct.residual.toExponential(1)]);
+    }
+    table(['case', 'reference', 'factor s', 'solve s', 'nnz(L)+nnz(U)−n', 'time ours/ref', 'fill ratio', 'stored ratio', 'residual'], rows);
+    const largest = results[results.length - 1], mmd = largest.splu.find((s) => s.ordering === 'MMD_AT_PLUS_A');
+    if (mmd) {
+      const o = largest.ours, tr = (o.analyseSeconds + o.factorSeconds + o.solveSeconds) / (mmd.factorSeconds + mmd.solveSeconds), fr = (2 * o.nnzL - o.dofs) / (mmd.nnzL + mmd.nnzU - o.dofs);
+      say(`Targets at the largest size (${largest.c.name}, ${o.dofs} dofs) against SciPy MMD_AT_PLUS_A: time ratio ${fmt(tr)} (target ≤ 0.5: ${tr <= 0.5 ? 'met' : 'NOT met'}), fill ratio ${fmt(fr)} (target ≤ 0.7: ${fr <= 0.7 ? 'met' : 'NOT met'}).`);
+      say();
+    }
+  } else {
+    say('SciPy is absent: `apt-get install -y python3-scipy` and run the bench again for the reference columns.');
+    say();
+  }
+  say('## 2. Assembly against factorisation');
+  say();
+  table(['case', 'dofs', 'assemble s', 'factor s', 'assemble / factor', 'target < 10 %'],
+    results.map(({ c, ours: o }) => [c.name, String(o.dofs), fmt(o.assembleSeconds, 3), fmt(o.factorSeconds), `${fmt((100 * o.assembleSeconds) / o.factorSeconds, 1)} %`, o.assembleSeconds < 0.1 * o.factorSeconds ? 'met' : 'NOT met']));
+  say('## 3. Memory: symbolic estimate against the measured peak');
+  say();
+  say('Measured = peak resident set during `factor` minus the resident set just before it (Linux VmHWM reset through /proc/self/clear_refs; maxRSS delta where that is not available), in a child process per size after a garbage collection.');
+  say();
+  table(['case', 'dofs', 'estimate MiB', 'measured MiB', 'estimate / measured', 'within 20 %'],
+    results.map(({ c, ours: o }) => [c.name, String(o.dofs), mb(o.memoryBytes), mb(o.peakBytes), fmt(o.memoryBytes / o.peakBytes), Math.abs(o.memoryBytes / o.peakBytes - 1) <= 0.2 ? 'yes' : 'no']));
+}
+
+// ---- 4: sweeps ----
+function cli(argv: string[]): number {
+  const t0 = performance.now();
+  const r = spawnSync(process.execPath, [join(root, 'bin/quietgrid.mjs'), ...argv], { cwd: root, encoding: 'utf8', maxBuffer: 1 << 24 });
+  if (r.status !== 0) throw new Error(`quietgrid ${argv.join(' ')} failed (${r.status}):\n${r.stderr}`);
+  return (performance.now() - t0) / 1000;
+}
+
+if (!skip.has('sweep')) {
+  const dir = mkdtempSync(join(tmpdir(), 'quietgrid-bench-sweep-'));
+  try {
+    const c: DuctCase = { name: 'sweep', order: 2, topHz: 1000, chamberLength: 2 };
+    const freqs = Array.from({ length: 24 }, (_, i) => Math.round(100 * Math.pow(10, i / 23)));
+    const file = join(dir, 'sweep.json');
+    writeFileSync(file, chamberScenario(c, freqs));
+    const dofs = prepareScenario(readScenario(chamberScenario(c, freqs)).scenario, { maxDofs: Infinity }).info.dofs;
+    console.error('sweep with 1 and 2 workers …');
+    const t1 = cli(['solve', file, '--workers', '1', '--no-check-order', '--out', join(dir, 'w1')]);
+    const t2 = cli(['solve', file, '--workers', '2', '--no-check-order', '--out', join(dir, 'w2')]);
+    say('## 4. Sweep: 24 frequencies, 1 worker against 2');
+    say();
+    say(`\`node bin/quietgrid.mjs solve SWEEP.json --workers N --no-check-order\`, wall time of the whole command; scenario: the chamber of 2 m at order 2, ${dofs} dofs, 24 frequencies 100–1000 Hz.`);
+    say();
+    table(['workers', 'wall s', 'speed-up', 'target ≥ 1.7×'], [['1', fmt(t1), '1.00', ''], ['2', fmt(t2), fmt(t1 / t2), t1 / t2 >= 1.7 ? 'met' : 'NOT met']]);
+  } finally {
+    rmSync(dir, { recursive: true, force: true });
+  }
+}
+
+// ---- 5: start-up ----
+if (!skip.has('startup')) {
+  const dir = mkdtempSync(join(tmpdir(), 'quietgrid-bench-start-'));
+  try {
+    const demos = readdirSync(join(root, 'scenarios')).filter((f) => f.endsWith('.json') && f !== 'schema.json').map((f) => {
+      const s = readScenario(readFileSync(join(root, 'scenarios', f), 'utf8')).scenario;
+      return { f, work: prepareScenario(s, { maxDofs: Infinity }).info.dofs * s.sweep.frequenciesHz.length };
+    }).sort((a, b) => a.work - b.work);
+    const demo = demos[0].f;
+    const s = readScenario(readFileSync(join(root, 'scenarios', demo), 'utf8')).scenario;
+    const f0 = s.sweep.frequenciesHz[0];
+    const tOne = cli(['solve', join('scenarios', demo), '--frequencies', String(f0), '--no-check-order', '--workers', '1', '--out', join(dir, 'one')]);
+    const tAll = cli(['solve', join('scenarios', demo), '--out', join(dir, 'all')]);
+    say('## 5. Start-up');
+    say();
+    say(`The smallest demo (by dofs × frequencies): scenarios/${demo}. Wall time of \`node bin/quietgrid.mjs solve\`, start to exit, results written.`);
+    say();
+    table(['run', 'wall s', 'target < 2 s'], [[`one frequency (${f0} Hz), --no-check-order`, fmt(tOne), tOne < 2 ? 'met' : 'NOT met'], [`whole sweep (${s.sweep.frequenciesHz.length} frequencies, defaults)`, fmt(tAll), '']]);
+  } finally {
+    rmSync(dir, { recursive: true, force: true });
+  }
+}
+
+// ---- 6: the largest duct in 8 GiB ----
+if (!skip.has('largest')) {
+  const base = FACTOR_CASES[FACTOR_CASES.length - 1];
+  /** Factor estimate plus what the assembly keeps: pattern (4 B) and values (16 B) per entry, the scatter map, coordinates. */
+  const estimate = (L: number) => {
+    const p = prepareScenario(readScenario(chamberScenario({ ...base, chamberLength: L })).scenario, { maxDofs: Infinity });
+    if (p.kind !== 'duct') throw new Error('duct');
+    const a = p.duct.assembly, i = p.info;
+    return { L, dofs: i.dofs, factor: i.memoryEstimateBytes, total: i.memoryEstimateBytes + 20 * a.pattern.colIdx.length + 4 * a.scatter.length + 40 * i.dofs };
+  };
+  console.error('largest duct in 8 GiB …');
+  const budget = 8 * GIB, tried = [estimate(base.chamberLength), estimate(2 * base.chamberLength)];
+  // the duct is elongated, so memory grows linearly with its length: interpolate, then check and step back
+  for (let k = 0; k < 3; k++) {
+    const [a, b] = tried.slice(-2);
+    const L = Math.floor(a.L + ((budget - a.total) * (b.L - a.L)) / (b.total - a.total));
+    tried.push(estimate(L * (k === 0 ? 1 : 0.98)));
+    if (tried[tried.length - 1].total <= budget) break;
+  }
+  const fit = tried.filter((t) => t.total <= budget).sort((x, y) => y.L - x.L)[0];
+  say('## 6. The longest duct in 8 GiB (by the estimate)');
+  say();
+  say(`Case "${base.name}" (order ${base.order}, ${base.topHz} Hz, 0.5 × 0.4 m chamber) with a longer chamber; estimate = symbolic factor estimate + assembled matrix, pattern and scatter map. Searched with the estimate only (no solve).`);
+  say();
+  table(['chamber m', 'dofs', 'factor estimate MiB', 'total estimate MiB'], tried.map((t) => [fmt(t.L, 1), String(t.dofs), mb(t.factor), mb(t.total)]));
+  if (fit) say(`Largest within 8 GiB: a ${fmt(fit.L, 1)} m chamber, ${fit.dofs} dofs, about ${mb(fit.total)} MiB.`);
+  say();
+}
+
+writeFileSync(join(root, 'bench/RESULTS.md'), `${md.join('\n')}\n`);
+console.error('wrote bench/RESULTS.md');

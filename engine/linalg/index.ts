@@ -8,5 +8,5 @@ export { eliminationTree, postorder } from './etree.ts';
 export { columnCounts } from './colCounts.ts';
 export { assertPermutation, invertPermutation, identityPermutation } from './permutation.ts';
 export { SingularSystemError, NonFiniteMatrixError, type PivotLocation } from './errors.ts';
-export { readMatrixMarket, readMatrixMarketVector, writeMatrixMarket, writeMatrixMarketVector } from './matrixMarket.ts';
+export { readMatrixMarket, readMatrixMarketVector, writeMatrixMarket, writeMatrixMarketVector, matrixMarketChunks } from './matrixMarket.ts';
 export * from './sparse.ts';

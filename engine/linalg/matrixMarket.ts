@@ -10,17 +10,33 @@ import type { ComplexCsr, ComplexVector } from './sparse.ts';
 
 /** Lower triangle as "coordinate complex symmetric", or every entry as "coordinate complex general". */
 export function writeMatrixMarket(A: ComplexCsr, symmetricLowerOnly = true): string {
+  return [...matrixMarketChunks(A, symmetricLowerOnly)].join('');
+}
+
+/**
+ * The text of writeMatrixMarket in pieces of about `rowsPerChunk` rows each, for systems whose file
+ * exceeds the longest string a JavaScript engine holds (about 2^29 characters in V8).
+ */
+export function* matrixMarketChunks(A: ComplexCsr, symmetricLowerOnly = true, rowsPerChunk = 4096): Generator<string> {
   const { n, rowPtr, colIdx, re, im } = A;
-  const lines: string[] = [];
+  let count = 0;
   for (let i = 0; i < n; i++) {
-    for (let k = rowPtr[i]; k < rowPtr[i + 1]; k++) {
-      const j = colIdx[k];
-      if (symmetricLowerOnly && j > i) continue;
-      lines.push(`${i + 1} ${j + 1} ${re[k]} ${im[k]}`);
-    }
+    for (let k = rowPtr[i]; k < rowPtr[i + 1]; k++) if (!symmetricLowerOnly || colIdx[k] <= i) count++;
   }
   const symmetry = symmetricLowerOnly ? 'symmetric' : 'general';
-  return `%%MatrixMarket matrix coordinate complex ${symmetry}\n${n} ${n} ${lines.length}\n${lines.join('\n')}\n`;
+  yield `%%MatrixMarket matrix coordinate complex ${symmetry}\n${n} ${n} ${count}\n`;
+  for (let i0 = 0; i0 < n; i0 += rowsPerChunk) {
+    const lines: string[] = [];
+    for (let i = i0; i < Math.min(n, i0 + rowsPerChunk); i++) {
+      for (let k = rowPtr[i]; k < rowPtr[i + 1]; k++) {
+        const j = colIdx[k];
+        if (symmetricLowerOnly && j > i) continue;
+        lines.push(`${i + 1} ${j + 1} ${re[k]} ${im[k]}\n`);
+      }
+    }
+    yield lines.join('');
+  }
+  if (count === 0) yield '\n';
 }
 
 /** A column vector as "array complex general". */

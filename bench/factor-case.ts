@@ -1,0 +1,71 @@
+/**
+ * One factorisation case in a process of its own (so that its memory peak is its own):
+ *   node --expose-gc --import tsx bench/factor-case.ts NAME OUTDIR
+ * prepares the case, times assembly, analysis, factorisation and one solve, measures the resident-set
+ * peak of the factorisation alone, writes A.mtx and b.mtx into OUTDIR and prints one JSON line.
+ */
+import { createWriteStream, readFileSync, writeFileSync } from 'node:fs';
+import { once } from 'node:events';
+import { join } from 'node:path';
+import { readScenario } from '../engine/scenario/index.ts';
+import { prepareScenario, systemAt } from '../engine/solve/scenario.ts';
+import { analyzeMesh } from '../engine/solve/linear.ts';
+import { factor, solve, matrixMarketChunks, writeMatrixMarketVector, relativeResidual } from '../engine/linalg/index.ts';
+import { chamberScenario, FACTOR_CASES } from './scenarios.ts';
+
+const [name, outDir] = process.argv.slice(2);
+const c = FACTOR_CASES.find((x) => x.name === name);
+if (!c || !outDir) throw new Error('usage: factor-case.ts NAME OUTDIR');
+const gc = (globalThis as { gc?: () => void }).gc ?? (() => {});
+const now = () => performance.now() / 1000;
+
+/** Peak resident set since the last reset (Linux VmHWM), or the process's maxRSS when /proc is missing. */
+function peakBytes(): number {
+  try {
+    return Number(/VmHWM:\s+(\d+)/.exec(readFileSync('/proc/self/status', 'utf8'))![1]) * 1024;
+  } catch {
+    return process.resourceUsage().maxRSS * 1024;
+  }
+}
+function resetPeak(): boolean {
+  try {
+    writeFileSync('/proc/self/clear_refs', '5'); // Linux ≥ 4.0: resets VmHWM to the current RSS
+    return true;
+  } catch {
+    return false;
+  }
+}
+
+const p = prepareScenario(readScenario(chamberScenario(c)).scenario, { maxDofs: Infinity });
+if (p.kind !== 'duct') throw new Error('a duct case');
+let t = now();
+const S = analyzeMesh(p.duct.mesh, p.duct.assembly.pattern);
+const analyseSeconds = now() - t;
+systemAt(p, c.topHz); // warm-up: the first call compiles the kernels
+t = now();
+const { A, b } = systemAt(p, c.topHz);
+const assembleSeconds = now() - t;
+gc();
+const rss0 = process.memoryUsage().rss;
+const reset = resetPeak();
+const peak0 = peakBytes();
+t = now();
+const N = factor(A, S);
+const factorSeconds = now() - t;
+const peak = peakBytes() - (reset ? rss0 : peak0 > rss0 ? peak0 : rss0);
+t = now();
+const x = solve(N, b);
+const solveSeconds = now() - t;
+const residual = relativeResidual(A, x, b);
+
+const mtx = createWriteStream(join(outDir, 'A.mtx'));
+for (const chunk of matrixMarketChunks(A)) if (!mtx.write(chunk)) await once(mtx, 'drain');
+mtx.end();
+await once(mtx, 'finish');
+writeFileSync(join(outDir, 'b.mtx'), writeMatrixMarketVector(b));
+
+console.log(JSON.stringify({
+  name: c.name, order: c.order, topHz: c.topHz, chamberLength: c.chamberLength, dofs: S.n, nnzA: S.nnzA, nnzL: S.nnzL, storedEntries: S.storedEntries,
+  flops: S.flops, frontFlops: S.frontFlops, memoryBytes: S.memoryBytes, peakBytes: peak, peakReset: reset,
+  analyseSeconds, assembleSeconds, factorSeconds, solveSeconds, residual, perturbed: N.perturbed,
+}));
