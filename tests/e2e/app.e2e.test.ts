@@ -191,7 +191,7 @@ describe('quietgrid in the browser', () => {
 
   it('explains an invalid dimension at its field and disables the run with the reason', async () => {
     await input('duct.sections[1].width').fill('-5');
-    await hasText(field('duct.sections[1].width').locator('.issue'), /^The section width \(along y\) must be greater than 0 m; fix: /);
+    await hasText(field('duct.sections[1].width').locator('.issue'), /^The section width \(along y\) must be between 0.001 and 10000 m; fix: /);
     await hasAttribute(input('duct.sections[1].width'), 'aria-invalid', 'true');
     await expect.poll(() => page.locator('button.run').isDisabled()).toBe(true);
     await hasText(page.locator('#qg-run-blocker'), 'Cannot run: one problem in the scenario. First: duct.sections[1].width = -0.005');
