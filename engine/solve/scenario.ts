@@ -14,21 +14,11 @@ import { surfaceAdmittance } from '../assembly/boundary.ts';
 import { ductResults, ductSystem, prepareDuct, solveDuctAt, type DuctPoint, type DuctPrepared } from './duct.ts';
 import { prepareRoom, roomResults, roomSystem, solveRoomAt, type RoomPoint, type RoomPrepared } from './room.ts';
 import type { Mesh } from '../grid/mesh.ts';
+import type { ReportMeshInfo } from '../report/results.ts';
 import { estimateSize, LARGE_PROBLEM_DOFS, ProblemTooLarge } from './size.ts';
 
-export interface MeshInfo {
-  order: number;
-  pointsPerWavelength: number;
-  topFrequencyHz: number;
-  absorberKind: string;
-  layers: number;
-  elements: number;
-  dofs: number;
-  nnz: number;
-  factorNonzeros: number;
-  factorFlops: number;
-  memoryEstimateBytes: number;
-}
+/** What the mesh and its factor cost, as reports print it (the report layer owns the shape). */
+export type MeshInfo = ReportMeshInfo;
 
 export type Prepared =
   | { kind: 'duct'; scenario: NormalisedScenario; geometry: Geometry; duct: DuctPrepared; info: MeshInfo }
