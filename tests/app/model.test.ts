@@ -103,7 +103,7 @@ describe('issues at fields', () => {
     if (v.ok) throw new Error('should be invalid');
     const at = issuesAt(indexIssues(v.errors), 'duct.sections[1].width');
     expect(at).toHaveLength(1);
-    expect(issueText(at[0])).toMatch(/^The section width \(along y\) must be greater than 0 m; fix: /);
+    expect(issueText(at[0])).toMatch(/^The section width \(along y\) must be between 0.001 and 10000 m; fix: /);
     expect(issuesAt(indexIssues(v.errors), 'duct.sections[0].width')).toEqual([]);
   });
   it('give a position\'s coordinate issue to the position', () => {

@@ -181,7 +181,7 @@ describe('components from props', () => {
     expect(ok).not.toContain('aria-invalid');
     const bad = renderToStaticMarkup(createElement(NumberField, { form: formFor(setAt(plant, 'duct.sections[1].width', -5)), path: 'duct.sections[1].width', label: 'Width (y)', unit: 'length' }));
     expect(bad).toContain('aria-invalid="true"');
-    expect(bad).toMatch(/<p class="issue" role="alert">The section width \(along y\) must be greater than 0 m; fix: [^<]+<\/p>/);
+    expect(bad).toMatch(/<p class="issue" role="alert">The section width \(along y\) must be between 0.001 and 10000 m; fix: [^<]+<\/p>/);
     expect(bad).toContain('value="-5000"');
   });
   it('the run button is disabled and says why', () => {

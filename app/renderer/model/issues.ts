@@ -26,7 +26,7 @@ export function issuesAt(index: IssueIndex, path: string): Issue[] {
 
 /**
  * The issue in words for a field that already shows its own label and value: the message without its
- * leading "path = value: ", e.g. "the section width (along y) must be greater than 0 m; fix: …".
+ * leading "path = value: ", e.g. "the section width (along y) must be between 0.001 and 10000 m; fix: …".
  */
 export function issueText(issue: Issue): string {
   const where = issue.path === '' ? 'the scenario' : issue.path;
