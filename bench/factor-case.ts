@@ -50,8 +50,10 @@ const rss0 = process.memoryUsage().rss;
 const reset = resetPeak();
 const peak0 = peakBytes();
 t = now();
+const cpu0 = process.cpuUsage();
 const N = factor(A, S);
 const factorSeconds = now() - t;
+const cpu = process.cpuUsage(cpu0), factorCpuSeconds = (cpu.user + cpu.system) / 1e6;
 const peak = peakBytes() - (reset ? rss0 : peak0 > rss0 ? peak0 : rss0);
 t = now();
 const x = solve(N, b);
@@ -67,5 +69,5 @@ writeFileSync(join(outDir, 'b.mtx'), writeMatrixMarketVector(b));
 console.log(JSON.stringify({
   name: c.name, order: c.order, topHz: c.topHz, chamberLength: c.chamberLength, dofs: S.n, nnzA: S.nnzA, nnzL: S.nnzL, storedEntries: S.storedEntries,
   flops: S.flops, frontFlops: S.frontFlops, memoryBytes: S.memoryBytes, peakBytes: peak, peakReset: reset,
-  analyseSeconds, assembleSeconds, factorSeconds, solveSeconds, residual, perturbed: N.perturbed,
+  analyseSeconds, assembleSeconds, factorSeconds, factorCpuSeconds, solveSeconds, residual, perturbed: N.perturbed,
 }));
