@@ -16,7 +16,7 @@ export function readRoom(ck: Checker, value: Found): NormalisedRoom | undefined 
   const room = readObject(ck, value, 'room', 'the room');
   if (room === undefined) return undefined;
   const size = readNumbers(ck, required(ck, room, 'room', 'size', 'the room size [Lx, Ly, Lz]', '[2.0, 1.6, 1.2]'), 'room.size',
-    'the room size [Lx, Ly, Lz]', 3, { unit: 'm', above: 0 }, (i) => `the room's extent along ${AXES[i]}`);
+    'the room size [Lx, Ly, Lz]', 3, { unit: 'm', min: LIMITS.minDimension, max: LIMITS.maxDimension }, (i) => `the room's extent along ${AXES[i]}`);
   const walls = readWalls(ck, get(room, 'walls'));
   const sources = readPoints(ck, room, 'sources', size, readSource);
   const receivers = get(room, 'receivers') === MISSING ? [] : readPoints(ck, room, 'receivers', size, readReceiver);
