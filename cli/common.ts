@@ -208,7 +208,7 @@ export function describeWarnings(warnings: readonly Issue[]): string[] {
  * millimetres as metres should not take the machine down), and never when the factor would not fit in
  * the free memory — that stops before any factorisation, with the estimate and the levers.
  */
-export function prepareGuarded(loaded: Loaded, confirmed: boolean): Prepared {
+export function prepareGuarded(loaded: Loaded, confirmed: boolean, freeBytes: number = freemem()): Prepared {
   const s = loaded.scenario, size = estimateSize(s, buildGeometry(s));
   if (!confirmed && !(size.dofs <= LARGE_PROBLEM_DOFS)) throw new UsageError(`${loaded.path}: ${new ProblemTooLarge(size, LARGE_PROBLEM_DOFS).message}`);
   let prepared: Prepared;
@@ -218,7 +218,7 @@ export function prepareGuarded(loaded: Loaded, confirmed: boolean): Prepared {
     // prepareScenario refuses what the engine cannot model, naming the field.
     throw new UsageError(`${loaded.path}: cannot set up the problem: ${e instanceof Error ? e.message : String(e)}`);
   }
-  const need = prepared.info.memoryEstimateBytes, free = freemem();
+  const need = prepared.info.memoryEstimateBytes, free = freeBytes;
   if (need > 0.8 * free) {
     throw new UsageError(`${loaded.path}: one frequency needs about ${megabytes(need)} for its factor (estimated from the symbolic analysis) but only ${megabytes(free)} is free: ` +
       'lower mesh.order or mesh.pointsPerWavelength, lower the sweep\'s top frequency, or split the sweep and solve the high frequencies on a larger machine (quietgrid solve --frequencies …)');

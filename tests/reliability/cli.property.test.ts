@@ -89,3 +89,14 @@ describe('quietgrid solve under mutated scenarios', () => {
     expect(existsSync(join(root, 'out'))).toBe(false);
   });
 });
+
+describe('memory guard', () => {
+  it('a factor that would not fit in free memory stops before any factorisation, with the estimate and the levers', async () => {
+    const { prepareGuarded, loadScenario, UsageError } = await import('../../cli/common.ts');
+    const loaded = await loadScenario('scenarios/kitchen-extract-stub-resonator.json');
+    expect(() => prepareGuarded(loaded, false, 1e6)).toThrow(UsageError);
+    expect(() => prepareGuarded(loaded, false, 1e6)).toThrow(/needs about .* only .* is free: lower mesh.order/);
+    // with the machine's real free memory the same scenario is set up
+    expect(prepareGuarded(loaded, false).info.dofs).toBeGreaterThan(0);
+  });
+});
