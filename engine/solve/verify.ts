@@ -51,7 +51,8 @@ function row(c: string, source: string, tolerance: string, value: number, shown:
 
 const C = 343, RHO = 1.2;
 
-function straightDuct(kind: AbsorberKind, layers: number, order: number, ppw: number, outletOpen = true): DuctModel {
+/** A 3 m straight duct (λ = 1 m at 343 Hz) with absorbing ends, the plane wave launched at its inlet. */
+export function straightDuct(kind: AbsorberKind, layers: number, order: number, ppw: number, outletOpen = true): DuctModel {
   const side = 0.1, rect = { y0: 0, y1: side, z0: 0, z1: side }, open = { a0: 0, a1: side, b0: 0, b1: side };
   return {
     boxes: [{ x0: 0, x1: 3, y0: 0, y1: side, z0: 0, z1: side }],
@@ -63,7 +64,7 @@ function straightDuct(kind: AbsorberKind, layers: number, order: number, ppw: nu
 }
 
 /** max |u − u_exact| over the physical dofs: e^{−jkx} on the total side, 0 on the scattered side (1 Pa incident). */
-function outgoingError(model: DuctModel, now: Now): number {
+export function outgoingError(model: DuctModel, now: Now): number {
   const k = 2 * Math.PI, prep = prepareDuct(model), u = solveDuctAt(prep, C, now, true).field!;
   let error = 0;
   for (let i = 0; i < u.re.length; i++) {
