@@ -8,7 +8,7 @@
  *   4. a 24-frequency sweep with 1 and 2 workers through the command line;
  *   5. start-up: the smallest demo scenario end to end;
  *   6. the longest elongated duct whose solve fits in 8 GiB by the estimate.
- * Options: --only=small,medium (factor cases), --skip=sweep,startup,largest,reference.
+ * Options: --only=small,medium (factor cases), --skip=sweep,startup,largest,reference, --scipy-timeout=SECONDS (per ordering, default 1800).
  * External references are used when present and never installed here: SciPy from Debian
  * (apt-get install -y python3-scipy, run as /usr/bin/python3), Octave (apt-get install -y octave).
  * Timings are printed and recorded, never asserted.
@@ -72,12 +72,18 @@ function runCase(c: DuctCase, dir: string): Ours {
   return JSON.parse(r.stdout.trim().split('\n').pop()!) as Ours;
 }
 
-function runScipy(dir: string): Splu[] {
-  const r = spawnSync('/usr/bin/python3', [join(root, 'bench/scipy_splu.py'), join(dir, 'A.mtx'), join(dir, 'b.mtx'), 'MMD_AT_PLUS_A', 'COLAMD'], {
-    encoding: 'utf8', maxBuffer: 1 << 24, env: { ...process.env, OPENBLAS_NUM_THREADS: '1', OMP_NUM_THREADS: '1' }, // one thread, as ours
+/** One Python process per ordering, so that a slow one can be stopped (--scipy-timeout=SECONDS, default 1800) without losing the other. */
+const SCIPY_TIMEOUT_S = Number(flag('scipy-timeout')[0] ?? 1800);
+function runScipy(dir: string): (Splu | { ordering: string; stoppedAfter: number })[] {
+  return ['MMD_AT_PLUS_A', 'COLAMD'].map((ordering) => {
+    const r = spawnSync('/usr/bin/python3', [join(root, 'bench/scipy_splu.py'), join(dir, 'A.mtx'), join(dir, 'b.mtx'), ordering], {
+      encoding: 'utf8', maxBuffer: 1 << 24, timeout: SCIPY_TIMEOUT_S * 1000, killSignal: 'SIGKILL',
+      env: { ...process.env, OPENBLAS_NUM_THREADS: '1', OMP_NUM_THREADS: '1' }, // one thread, as ours
+    });
+    if (r.status === 0) return JSON.parse(r.stdout.trim()) as Splu;
+    if (r.signal === 'SIGKILL') return { ordering, stoppedAfter: SCIPY_TIMEOUT_S };
+    throw new Error(`SciPy (${ordering}) failed: ${r.stderr}`);
   });
-  if (r.status !== 0) { console.error(`scipy failed: ${r.stderr}`); return []; }
-  return r.stdout.trim().split('\n').map((l) => JSON.parse(l) as Splu);
 }
 
 /** Octave has no Matrix Market reader: the triplets are read with fscanf, the lower triangle mirrored. */
@@ -119,13 +125,16 @@ say(`- Octave: ${octave ?? 'absent — install with `apt-get install -y octave` 
 say();
 
 const results: { c: DuctCase; ours: Ours; splu: Splu[]; oct: OctaveRun | null }[] = [];
+const stopped: string[] = [];
 for (const c of cases) {
   const dir = mkdtempSync(join(tmpdir(), `quietgrid-bench-${c.name}-`));
   try {
     console.error(`factor case ${c.name} (order ${c.order}, ${c.topHz} Hz, chamber ${c.chamberLength} m) …`);
     const ours = runCase(c, dir);
     console.error(`  ours: ${ours.dofs} dofs, factor ${fmt(ours.factorSeconds)} s`);
-    const splu = scipy ? runScipy(dir) : [];
+    const all = scipy ? runScipy(dir) : [];
+    const splu = all.filter((s): s is Splu => !('stoppedAfter' in s));
+    for (const s of all) if ('stoppedAfter' in s) stopped.push(`${c.name}: SciPy ${s.ordering} was stopped after ${s.stoppedAfter} s (--scipy-timeout); its ratio is below ours/${s.stoppedAfter} s.`);
     for (const s of splu) console.error(`  SciPy ${s.ordering}: factor ${fmt(s.factorSeconds)} s`);
     const oct = octave ? runOctave(dir) : null;
     results.push({ c, ours, splu, oct });
@@ -156,6 +165,8 @@ if (results.length > 0) {
       if (oct) rows.push([c.name, 'Octave A\\b', fmt(oct.seconds), '—', '(in total)', '—', fmt(ourT / oct.seconds), '—', '—', '—', oct.residual.toExponential(1)]);
     }
     table(['case', 'reference', 'factor s', 'factor CPU s', 'solve s', 'nnz(L)+nnz(U)−n', 'time ours/ref', 'factor CPU ours/ref', 'fill ratio', 'stored ratio', 'residual'], rows);
+    for (const line of stopped) say(`- ${line}`);
+    if (stopped.length > 0) say();
     const largest = results[results.length - 1], mmd = largest.splu.find((s) => s.ordering === 'MMD_AT_PLUS_A');
     if (mmd) {
       const o = largest.ours, tr = (o.analyseSeconds + o.factorSeconds + o.solveSeconds) / (mmd.factorSeconds + mmd.solveSeconds), fr = (2 * o.nnzL - o.dofs) / (mmd.nnzL + mmd.nnzU - o.dofs);

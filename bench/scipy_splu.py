@@ -1,6 +1,6 @@
 """SuperLU (scipy.sparse.linalg.splu) on a Matrix Market system written by bench/factor-case.ts.
 
-usage: /usr/bin/python3 bench/scipy_splu.py A.mtx b.mtx ORDERING...   (MMD_AT_PLUS_A, COLAMD, ...)
+usage: /usr/bin/python3 bench/scipy_splu.py A.mtx b.mtx ORDERING...  (bench/run.ts gives one ordering per process)   (MMD_AT_PLUS_A, COLAMD, ...)
 Prints one JSON line per ordering: factor and solve seconds (timed here, reading excluded),
 nnz(L) + nnz(U) of SuperLU (L stores its unit diagonal), and the relative residual.
 """
