@@ -74,15 +74,16 @@ function runCase(c: DuctCase, dir: string): Ours {
 
 /** One Python process per ordering, so that a slow one can be stopped (--scipy-timeout=SECONDS, default 1800) without losing the other. */
 const SCIPY_TIMEOUT_S = Number(flag('scipy-timeout')[0] ?? 1800);
-function runScipy(dir: string): (Splu | { ordering: string; stoppedAfter: number })[] {
+function runScipy(dir: string): (Splu | { ordering: string; stoppedAfter: number; why?: string })[] {
   return ['MMD_AT_PLUS_A', 'COLAMD'].map((ordering) => {
     const r = spawnSync('/usr/bin/python3', [join(root, 'bench/scipy_splu.py'), join(dir, 'A.mtx'), join(dir, 'b.mtx'), ordering], {
       encoding: 'utf8', maxBuffer: 1 << 24, timeout: SCIPY_TIMEOUT_S * 1000, killSignal: 'SIGKILL',
       env: { ...process.env, OPENBLAS_NUM_THREADS: '1', OMP_NUM_THREADS: '1' }, // one thread, as ours
     });
     if (r.status === 0) return JSON.parse(r.stdout.trim()) as Splu;
-    if (r.signal === 'SIGKILL') return { ordering, stoppedAfter: SCIPY_TIMEOUT_S };
-    throw new Error(`SciPy (${ordering}) failed: ${r.stderr}`);
+    if ((r.error as { code?: string } | undefined)?.code === 'ETIMEDOUT') return { ordering, stoppedAfter: SCIPY_TIMEOUT_S };
+    // SIGKILL without our timeout: the kernel's out-of-memory killer (SuperLU's fill outgrew the machine)
+    return { ordering, stoppedAfter: NaN, why: r.signal === 'SIGKILL' ? 'killed by the system, most likely out of memory' : `failed (${r.status}): ${r.stderr.trim().split('\n').pop() ?? ''}` };
   });
 }
 
@@ -134,7 +135,10 @@ for (const c of cases) {
     console.error(`  ours: ${ours.dofs} dofs, factor ${fmt(ours.factorSeconds)} s`);
     const all = scipy ? runScipy(dir) : [];
     const splu = all.filter((s): s is Splu => !('stoppedAfter' in s));
-    for (const s of all) if ('stoppedAfter' in s) stopped.push(`${c.name}: SciPy ${s.ordering} was stopped after ${s.stoppedAfter} s (--scipy-timeout); its ratio is below ours/${s.stoppedAfter} s.`);
+    for (const s of all) {
+      if (!('stoppedAfter' in s)) continue;
+      stopped.push(s.why ? `${c.name}: SciPy ${s.ordering} ${s.why} (machine memory ${(totalmem() / GIB).toFixed(1)} GiB); no figures.` : `${c.name}: SciPy ${s.ordering} was stopped after ${s.stoppedAfter} s (--scipy-timeout); the time ratio is below ours / ${s.stoppedAfter} s.`);
+    }
     for (const s of splu) console.error(`  SciPy ${s.ordering}: factor ${fmt(s.factorSeconds)} s`);
     const oct = octave ? runOctave(dir) : null;
     results.push({ c, ours, splu, oct });
@@ -171,6 +175,9 @@ if (results.length > 0) {
     if (mmd) {
       const o = largest.ours, tr = (o.analyseSeconds + o.factorSeconds + o.solveSeconds) / (mmd.factorSeconds + mmd.solveSeconds), fr = (2 * o.nnzL - o.dofs) / (mmd.nnzL + mmd.nnzU - o.dofs);
       say(`Targets at the largest size (${largest.c.name}, ${o.dofs} dofs) against SciPy MMD_AT_PLUS_A: time ratio ${fmt(tr)} (target ≤ 0.5: ${tr <= 0.5 ? 'met' : 'NOT met'}), fill ratio ${fmt(fr)} (target ≤ 0.7: ${fr <= 0.7 ? 'met' : 'NOT met'}).`);
+      say();
+    } else {
+      say(`Targets at the largest size (${largest.c.name}): SciPy MMD_AT_PLUS_A gave no figures there (see above), so the ratios cannot be computed; the largest size with both is the one to read.`);
       say();
     }
   } else {
