@@ -5,6 +5,7 @@
 import { EXIT_FAILED, EXIT_OK, EXIT_USAGE, UsageError, describeDefaults, describeWarnings, hz, loadScenario, parseOptions, scenarioPath, type Io } from './common.ts';
 import { solveCommand } from './solve.ts';
 import { exportCommand, importCommand } from './system.ts';
+import { mergeCommand } from './merge.ts';
 import { verifyCommand } from './verify.ts';
 import { SolverFailure } from '../engine/solve/linear.ts';
 
@@ -17,6 +18,7 @@ Commands:
   validate SCENARIO.json         check a scenario; print its problems, or "ok" and the defaults used
   export-system SCENARIO.json    write the linear system at one frequency as Matrix Market files
   import-solution SCENARIO.json  read an external solver's solution and write the report for it
+  merge DIR... --out DIR         join the results of several --frequencies runs into one report
   verify [--json]                run the built-in verification suite on this machine (a few minutes)
 
 Run "quietgrid COMMAND --help" for a command's options. Scenario files are described in
@@ -40,6 +42,7 @@ const COMMANDS: Record<string, Command> = {
   validate: validateCommand,
   'export-system': exportCommand,
   'import-solution': importCommand,
+  merge: mergeCommand,
   verify: verifyCommand,
 };
 
