@@ -4,11 +4,10 @@
  * reflection of the discrete kind against the Padé formula.
  */
 import { describe, expect, it } from 'vitest';
-import { prepareDuct, solveDuctAt, type DuctModel } from '../../engine/solve/duct.ts';
-import { outgoingError, straightDuct } from '../../engine/solve/verify.ts';
+import type { DuctModel } from '../../engine/solve/duct.ts';
+import { measuredOutletReflection, outgoingError, straightDuct } from '../../engine/solve/verify.ts';
 import { chooseLengths, DEFAULT_RANGE, padeReflection, type AbsorberKind } from '../../engine/assembly/layers.ts';
 
-const f = 343, k = (2 * Math.PI * f) / 343; // λ = 1 m
 const now = () => performance.now();
 const duct = straightDuct;
 // the same measure `quietgrid verify` prints: max |u − u_exact| over the physical dofs
@@ -45,17 +44,7 @@ describe('measured reflection of discrete layers against the Padé formula', () 
   for (const [p, layers, ppw] of [[3, 2, 16], [4, 2, 16], [2, 3, 40]] as const) {
     it(`p = ${p}, ${layers} layers`, () => {
       // fine interior so that its own error (~1e-6) is far below the reflection compared
-      const model = duct('discrete', layers, p, ppw);
-      const prep = prepareDuct(model), r = solveDuctAt(prep, f, () => performance.now(), true), u = r.field!;
-      // the reflected wave on the total side: u − e^{−jkx} = B e^{+jkx}, |B| = |R| of the outlet stack
-      let sum = 0, count = 0;
-      for (let i = 0; i < u.re.length; i++) {
-        const x = prep.xyz[3 * i];
-        if (!prep.onTotalSide[i] || x < 1.6 || x > 2.9) continue;
-        sum += Math.hypot(u.re[i] - Math.cos(k * x), u.im[i] + Math.sin(k * x));
-        count++;
-      }
-      const measured = sum / count;
+      const measured = measuredOutletReflection(duct('discrete', layers, p, ppw), now);
       const R = padeReflection(p, chooseLengths(p, layers, DEFAULT_RANGE), { re: 1, im: 0 });
       const predicted = Math.hypot(R.re, R.im);
       console.log(`p=${p} layers=${layers}: measured |R| ${measured.toExponential(4)}, formula ${predicted.toExponential(4)}`);

@@ -3,25 +3,17 @@
  * instantaneous pressure, which can be animated over one period of the wave.
  */
 import { useCallback, useEffect, useMemo, useRef } from 'react';
-import type { Geometry } from '../../../engine/scenario/index.ts';
 import { sliceFigure } from '../model/charts.ts';
 import { AXIS_NAMES, sliceRows, type Quantity } from '../model/field.ts';
 import { formatHz, formatNumber, LENGTH_SCALE, type LengthUnit } from '../model/units.ts';
 import type { Axis, Slice } from '../protocol.ts';
 import { loadPlotly } from '../services/plots.ts';
 import { PlotlyChart } from './PlotlyChart.tsx';
+import type { FieldViewState } from '../controller.ts';
 
-export interface FieldProps {
+/** The controller's field-view state, plus what the view needs to draw it. */
+export interface FieldProps extends FieldViewState {
   frequenciesHz: readonly number[];
-  frequencyHz: number | null;
-  axis: Axis;
-  position: number | null;
-  quantity: Quantity;
-  animate: boolean;
-  status: 'idle' | 'loading' | 'ready' | 'error';
-  slice: Slice | null;
-  message: string | null;
-  geometry: Geometry | null;
   units: LengthUnit;
   onChange(change: { frequencyHz?: number; axis?: Axis; position?: number; quantity?: Quantity; animate?: boolean }): void;
   onExportSlice(): void;
