@@ -1,5 +1,7 @@
 // The Electron window's hardening: web preferences, the Content-Security-Policy (also the page's <meta>),
 // the navigation / new-window / webview guards and the IPC allowlist with its argument checks.
+// Source: Electron documentation, "Security" (the recommendations list: context isolation, sandbox, no Node integration, a CSP, no navigation or new windows, validated IPC senders) — from memory for its numbering;
+// W3C, Content Security Policy Level 3 (Working Draft) for the directive names checked below.
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import {
