@@ -11,7 +11,7 @@ import { estimateSize, LARGE_PROBLEM_DOFS, ProblemTooLarge } from '../engine/sol
 import { describeFileError, readTextFile, writeFileAtomicIn } from '../engine/node/files.ts';
 import { meshOf, prepareScenario, sectionCutOns, type PointResult, type Prepared } from '../engine/solve/scenario.ts';
 import { buildReport, tableCsv, type ReportFailure, type Summary } from '../engine/report/results.ts';
-import { ACCURACY_READING, FLAG_MEANINGS, THRESHOLDS, assessPoint, type PointAccuracy } from '../engine/solve/accuracy.ts';
+import { ACCURACY_READING, FLAG_MEANINGS, THRESHOLDS, pointAccuracy, withOrderCheck, type PointAccuracy } from '../engine/solve/accuracy.ts';
 import { planeWaveValidBelowHz } from '../engine/solve/planewave.ts';
 import { fieldToVtu } from '../engine/report/vtk.ts';
 import { dofCoordinates } from '../engine/grid/mesh.ts';
@@ -159,7 +159,10 @@ export interface RunRecord {
 
 /** Each point with its accuracy figures and flags (the order check where a p + 1 solve of the same frequency exists). */
 export function assessPoints(prepared: Prepared, points: readonly PointResult[], checks: readonly PointResult[] = []): (PointResult & { accuracy: PointAccuracy })[] {
-  return points.map((p) => ({ ...p, accuracy: assessPoint(prepared, p, checks.find((c) => c.frequencyHz === p.frequencyHz)) }));
+  return points.map((p) => {
+    const a = p.accuracy ?? pointAccuracy(prepared, p), finer = checks.find((c) => c.frequencyHz === p.frequencyHz);
+    return { ...p, accuracy: finer ? withOrderCheck(a, p, finer) : a };
+  });
 }
 
 /** spectrum.csv, bands.csv and summary.json in `dir`, each written atomically. */

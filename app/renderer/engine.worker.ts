@@ -6,7 +6,7 @@
 import { validateScenario, formatIssues, type NormalisedScenario } from '../../engine/scenario/index.ts';
 import { meshOf, prepareScenario, sectionCutOns, solvePoint, type Prepared } from '../../engine/solve/scenario.ts';
 import { ProblemTooLarge } from '../../engine/solve/size.ts';
-import { ACCURACY_READING, assessPoint, defaultOrderCheckFrequencies, finerScenario, FLAG_MEANINGS, THRESHOLDS } from '../../engine/solve/accuracy.ts';
+import { ACCURACY_READING, assessPoint, solveAssessed, defaultOrderCheckFrequencies, finerScenario, FLAG_MEANINGS, THRESHOLDS } from '../../engine/solve/accuracy.ts';
 import { planeWaveValidBelowHz } from '../../engine/solve/planewave.ts';
 import type { ComplexVector } from '../../engine/linalg/sparse.ts';
 import { elementOfCell, sampleSlice } from './field/sampler.ts';
@@ -58,8 +58,7 @@ function prepare(scenario: unknown, keep: boolean, allowLarge: boolean): void {
 function solve(frequencyHz: number): void {
   if (!prepared) return post({ type: 'failure', frequencyHz, message: 'the worker has no prepared scenario' });
   try {
-    const point = solvePoint(prepared, frequencyHz, now, keepFields);
-    post({ type: 'result', point: { ...point, accuracy: assessPoint(prepared, point) } });
+    post({ type: 'result', point: solveAssessed(prepared, frequencyHz, now, keepFields) });
   } catch (e) {
     post({ type: 'failure', frequencyHz, message: messageOf(e) });
   }

@@ -35,28 +35,55 @@ export interface Numeric {
   diagonal: FrontDiagonal; // D and 1/D in the factor's numbering
   perturbed: number; // pivots replaced under the tolerance
   smallestPivot: PivotRecord | null; // the pivot smallest relative to its row scale (null when n = 0)
+  workspace: FactorWorkspace; // where panels and diagonal live
+  generation: number; // the workspace's count when this factor was made: a later factor() in it overwrites this one
 }
 
 export const DEFAULT_PIVOT_TOLERANCE = 1e-12;
 /** Offsets into the panel and stack arrays are Int32 in the kernels. */
 const INDEX_LIMIT = 0x7fffffff;
 
-export function factor(A: ComplexCsr, S: Symbolic, opts: FactorOptions = {}): Numeric {
-  checkPattern(A, S);
+interface FactorArrays {
+  panels: Float64Array; stack: Float64Array; work: Float64Array; map: Int32Array; rel: Int32Array; rowStart: Int32Array; scale: Float64Array; diagonal: FrontDiagonal;
+}
+
+/**
+ * The memory of a factorisation, kept for the next one of the same pattern. A sweep factors one pattern
+ * at every frequency: fresh arrays each time cost page faults, and worker threads sharing one address
+ * space then slow each other (bench/RESULTS.md, section 4). Allocated by the first factor() that uses it;
+ * each factor() in it overwrites the previous one's panels and diagonal.
+ */
+export class FactorWorkspace {
+  generation = 0;
+  private arrays: FactorArrays | null = null;
+
+  constructor(readonly symbolic: Symbolic) {}
+
+  /** The arrays for one more factorisation (allocated once): what an earlier Numeric in it held is invalid from now on. */
+  next(): FactorArrays {
+    this.generation++;
+    return (this.arrays ??= allocate(this.symbolic));
+  }
+}
+
+function allocate(S: Symbolic): FactorArrays {
   if (2 * Math.max(S.storedEntries, S.stackPeak) > INDEX_LIMIT) {
     throw new RangeError(`factor: ${S.storedEntries} factor entries exceed what 32-bit offsets address; the problem is too large for this solver`);
   }
   const n = S.n;
-  const panels = new Float64Array(2 * S.storedEntries);
-  const stack = new Float64Array(2 * S.stackPeak);
-  const work = new Float64Array(2 * S.workEntries);
-  const map = new Int32Array(n);
-  const rel = new Int32Array(S.maxFront);
-  const rowStart = new Int32Array(S.maxFront);
-  const scale = new Float64Array(n);
-  const diagonal: FrontDiagonal = {
-    dRe: new Float64Array(n), dIm: new Float64Array(n), invRe: new Float64Array(n), invIm: new Float64Array(n),
+  return {
+    panels: new Float64Array(2 * S.storedEntries), stack: new Float64Array(2 * S.stackPeak), work: new Float64Array(2 * S.workEntries),
+    map: new Int32Array(n), rel: new Int32Array(S.maxFront), rowStart: new Int32Array(S.maxFront), scale: new Float64Array(n),
+    diagonal: { dRe: new Float64Array(n), dIm: new Float64Array(n), invRe: new Float64Array(n), invIm: new Float64Array(n) },
   };
+}
+
+/** Factors A in the workspace (by default a fresh one); the result is valid until the next factor() in the same workspace. */
+export function factor(A: ComplexCsr, S: Symbolic, opts: FactorOptions = {}, workspace = new FactorWorkspace(S)): Numeric {
+  checkPattern(A, S);
+  if (workspace.symbolic !== S) throw new RangeError('factor: the workspace was made for another analysis');
+  const n = S.n;
+  const { panels, stack, work, map, rel, rowStart, scale, diagonal } = workspace.next();
   const guard = new PivotGuard(S, scale, opts.pivotTolerance ?? DEFAULT_PIVOT_TOLERANCE, opts.maxPerturbed ?? Math.max(8, Math.floor(n / 1000)));
   const { superStart, rowPtr, rowIdx, childPtr, child, panelPtr } = S;
   let top = 0; // doubles in use on the stack
@@ -68,6 +95,7 @@ export function factor(A: ComplexCsr, S: Symbolic, opts: FactorOptions = {}): Nu
     for (let t = 0; t < m; t++) map[rowIdx[r0 + t]] = ns + t;
     const cOff = top, cLen = m * (m + 1);
     stack.fill(0, cOff, cOff + cLen);
+    panels.fill(0, off, off + 2 * F * ns); // a reused workspace holds the previous factor here
     assembleColumns(A, S, first, ns, map, panels, off, scale);
     let base = cOff;
     for (let c = childPtr[s + 1] - 1; c >= childPtr[s]; c--) {
@@ -85,7 +113,7 @@ export function factor(A: ComplexCsr, S: Symbolic, opts: FactorOptions = {}): Nu
     stack.copyWithin(base, cOff, cOff + cLen);
     top = base + cLen;
   }
-  return { symbolic: S, matrix: A, panels, diagonal, perturbed: guard.count, smallestPivot: guard.smallest() };
+  return { symbolic: S, matrix: A, panels, diagonal, perturbed: guard.count, smallestPivot: guard.smallest(), workspace, generation: workspace.generation };
 }
 
 function checkPattern(A: ComplexCsr, S: Symbolic): void {

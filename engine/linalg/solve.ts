@@ -89,6 +89,7 @@ function residual(A: ComplexCsr, x: ComplexVector, b: ComplexVector, r: ComplexV
 function solveOnce(N: Numeric, b: ComplexVector): ComplexVector {
   const S = N.symbolic;
   const n = S.n;
+  if (N.generation !== N.workspace.generation) throw new RangeError('solve: this factor was overwritten by a later factor() in the same workspace');
   if (b.re.length !== n || b.im.length !== n) throw new RangeError(`solve: right-hand side has length ${b.re.length}, expected ${n}`);
   const xr = new Float64Array(n), xi = new Float64Array(n);
   for (let k = 0; k < n; k++) {

@@ -17,7 +17,7 @@ import { performance } from 'node:perf_hooks';
 import { setImmediate as yieldToEvents } from 'node:timers/promises';
 import type { NormalisedScenario } from '../scenario/index.ts';
 import { prepareScenario, solvePoint, type PointResult, type Prepared } from '../solve/scenario.ts';
-import { finerScenario } from '../solve/accuracy.ts';
+import { finerScenario, solveAssessed } from '../solve/accuracy.ts';
 
 export interface PointFailure { frequencyHz: number; message: string }
 
@@ -121,7 +121,7 @@ function inThisThread(scenario: NormalisedScenario, frequenciesHz: readonly numb
           opts.onCheck?.(point);
           continue;
         }
-        const point = solvePoint(prepared, f, () => performance.now(), opts.keepFields ?? false);
+        const point = solveAssessed(prepared, f, () => performance.now(), opts.keepFields ?? false);
         out.results.push(point);
         opts.onResult?.(point);
       } catch (e) {

@@ -1,13 +1,13 @@
 /**
  * One worker thread of the pool (pool.ts): prepares the scenario once, then solves one frequency per
- * 'solve' message and posts each result as soon as it is ready, the field's arrays transferred rather
- * than copied. A failure at one frequency is reported and the worker goes on with the next. An order-check
+ * 'solve' message and posts each result, with the accuracy figures that need no other solve, as soon as
+ * it is ready, the field's arrays transferred rather than copied. A failure at one frequency is reported and the worker goes on with the next. An order-check
  * job ('solve' with finer) is solved on the scenario at element order p + 1, prepared on the first such job.
  */
 import { parentPort, workerData } from 'node:worker_threads';
 import { performance } from 'node:perf_hooks';
 import { prepareScenario, solvePoint, type Prepared } from '../solve/scenario.ts';
-import { finerScenario } from '../solve/accuracy.ts';
+import { finerScenario, solveAssessed } from '../solve/accuracy.ts';
 import type { FromWorker, ToWorker, WorkerSetup } from './pool.ts';
 
 const port = parentPort!;
@@ -24,7 +24,7 @@ function messageOf(e: unknown): string {
 
 function solveOne(prepared: Prepared, frequencyHz: number): void {
   try {
-    const point = solvePoint(prepared, frequencyHz, now, setup.keepFields);
+    const point = solveAssessed(prepared, frequencyHz, now, setup.keepFields);
     const transfer = point.field ? [point.field.re.buffer as ArrayBuffer, point.field.im.buffer as ArrayBuffer] : [];
     post({ type: 'result', point }, transfer);
   } catch (e) {

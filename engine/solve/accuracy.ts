@@ -16,7 +16,7 @@ import { chooseLengths, DEFAULT_RANGE, padeReflection, worstReflection, type Com
 import { modeWavenumber, portRange } from './duct.ts';
 import type { PlaneRect } from './planes.ts';
 import type { NormalisedScenario } from '../scenario/types.ts';
-import type { PointResult, Prepared } from './scenario.ts';
+import { solvePoint, type PointResult, type Prepared } from './scenario.ts';
 import { planeWaveEstimate } from './planewave.ts';
 
 export type AccuracyFlag = 'layer_reflection' | 'energy' | 'order' | 'plane_wave_invalid';
@@ -170,16 +170,40 @@ export interface PointAccuracy {
   flags: AccuracyFlag[];
 }
 
+/** The order flags are listed in: the CSV's flags column reads the same however the figures were gathered. */
+const FLAG_ORDER: readonly AccuracyFlag[] = ['layer_reflection', 'energy', 'order', 'plane_wave_invalid'];
+
 /** The accuracy figures and flags of one solved point; `finer` is the same frequency solved at order p + 1, when it was. */
 export function assessPoint(p: Prepared, point: PointResult, finer?: PointResult): PointAccuracy {
+  const a = pointAccuracy(p, point);
+  return finer ? withOrderCheck(a, point, finer) : a;
+}
+
+/**
+ * The figures that need no other solve. Worth computing where the point was solved: the layer lengths
+ * of its frequency are chosen (and cached) there already, and another thread would choose them again.
+ */
+export function pointAccuracy(p: Prepared, point: PointResult): PointAccuracy {
   const f = point.frequencyHz, flags: AccuracyFlag[] = [];
   const reflection = reflectionEstimate(p, f).max;
   const energy = point.kind === 'duct' ? point.energyBalance : null;
-  const order = finer ? orderCheckDb(point, finer) : null;
   const plane = planeWaveEstimate(p, f);
   if (reflection !== null && reflection > THRESHOLDS.layerReflection) flags.push('layer_reflection');
   if (energy !== null && isLossless(p.scenario) && !(energy <= THRESHOLDS.energyBalance)) flags.push('energy');
-  if (order !== null && !(order <= THRESHOLDS.orderCheckDb)) flags.push('order');
   if (plane && !plane.valid) flags.push('plane_wave_invalid');
-  return { frequencyHz: f, reflectionEstimate: reflection, energyBalance: energy, orderCheckDb: order, tlPlaneDb: plane?.tlDb ?? null, planeWaveValid: plane?.valid ?? null, flags };
+  return { frequencyHz: f, reflectionEstimate: reflection, energyBalance: energy, orderCheckDb: null, tlPlaneDb: plane?.tlDb ?? null, planeWaveValid: plane?.valid ?? null, flags };
+}
+
+/** Figures from pointAccuracy with the order check added: `finer` is the same frequency solved at order p + 1. */
+export function withOrderCheck(a: PointAccuracy, point: PointResult, finer: PointResult): PointAccuracy {
+  const order = orderCheckDb(point, finer);
+  const fired = new Set<AccuracyFlag>(a.flags.filter((x) => x !== 'order'));
+  if (order !== null && !(order <= THRESHOLDS.orderCheckDb)) fired.add('order');
+  return { ...a, orderCheckDb: order, flags: FLAG_ORDER.filter((x) => fired.has(x)) };
+}
+
+/** One frequency solved and assessed in this thread (the figures that need no other solve). */
+export function solveAssessed(p: Prepared, frequencyHz: number, now: () => number, keepField = false): PointResult & { accuracy: PointAccuracy } {
+  const point = solvePoint(p, frequencyHz, now, keepField);
+  return { ...point, accuracy: pointAccuracy(p, point) };
 }

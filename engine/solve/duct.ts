@@ -20,8 +20,8 @@ import { layerStretches, type AbsorberKind, type AbsorptionRange } from '../asse
 import { addSplitLoad } from '../assembly/injection.ts';
 import { addSurfaceAdmittance, boundaryFaces } from '../assembly/boundary.ts';
 import { zeroVector, type ComplexCsr, type ComplexVector } from '../linalg/sparse.ts';
-import type { Symbolic } from '../linalg/index.ts';
 import { analyzeMesh, solveAt, type LinearStats } from './linear.ts';
+import { FactorWorkspace, type Symbolic } from '../linalg/index.ts';
 import { averagePower, cellSpan, samplePlane, type PlaneRect } from './planes.ts';
 
 /** An equivalent fluid filling a box: 1/ρ and 1/κ, complex for porous media (e^{+jωt}). */
@@ -52,6 +52,7 @@ export interface DuctPrepared {
   mesh: Mesh;
   assembly: AssemblyPattern;
   symbolic: Symbolic;
+  workspace: FactorWorkspace; // the factor's memory, reused at every frequency solved in this thread
   materials: Materials;
   xyz: Float64Array;
   onTotalSide: Uint8Array;
@@ -104,7 +105,8 @@ export function prepareDuct(model: DuctModel): DuctPrepared {
   }
   const r = outlet.rect, inRect = (_x: number, y: number, z: number) => y > r.y0 && y < r.y1 && z > r.z0 && z < r.z1;
   const outletFaces = typeof outlet.termination === 'object' ? boundaryFaces(mesh, '+x', inRect).map((f) => ({ element: f.element, side: '+x' as const })) : [];
-  return { model, mesh, assembly, symbolic: analyzeMesh(mesh, assembly.pattern), materials, xyz, onTotalSide, outletFaces, planes };
+  const symbolic = analyzeMesh(mesh, assembly.pattern);
+  return { model, mesh, assembly, symbolic, workspace: new FactorWorkspace(symbolic), materials, xyz, onTotalSide, outletFaces, planes };
 }
 
 /** The material table at one frequency: air in slot 0, each box's medium after it. */
@@ -172,7 +174,7 @@ export function solveDuctAt(prep: DuctPrepared, frequencyHz: number, now: () => 
   const t0 = now();
   const { A, b } = ductSystem(prep, frequencyHz);
   const t1 = now();
-  const { x: u, stats } = solveAt(A, prep.symbolic, b, frequencyHz, now);
+  const { x: u, stats } = solveAt(A, prep.symbolic, b, frequencyHz, now, prep.workspace);
   return { ...ductResults(prep, frequencyHz, u), stats: { ...stats, assembleSeconds: (t1 - t0) / 1000 }, field: keepField ? u : undefined };
 }
 

@@ -1,15 +1,15 @@
 /**
  * The sparse direct solve as the physics sees it: one analysis per mesh (nested dissection on the node
- * lattice), one factorisation per frequency, every solution's residual checked, and a singular or
+ * lattice), one factorisation per frequency in memory kept from the last one, every solution's residual
+ * checked (and refined when it is not at round-off or pivots were perturbed), and a singular or
  * ill-conditioned system turned into words about the physics instead of a silent wrong answer.
  */
-import { analyze, factor, solveRefined, latticeDissection, SingularSystemError, type Symbolic } from '../linalg/index.ts';
+import { analyze, factor, solve, latticeDissection, SingularSystemError, FactorWorkspace, type Symbolic } from '../linalg/index.ts';
 import { relativeResidual, type ComplexCsr, type ComplexVector, type SparsePattern } from '../linalg/sparse.ts';
 import type { Mesh } from '../grid/mesh.ts';
 
 /** A solution is accepted when ‖Ax − b‖/‖b‖ is below this after refinement. */
 export const ACCEPTED_RESIDUAL = 1e-8;
-const REFINEMENT_STEPS = 2;
 
 export class SolverFailure extends Error {
   constructor(message: string, readonly frequencyHz: number) {
@@ -29,18 +29,19 @@ function singular(frequencyHz: number, detail: string): SolverFailure {
   return new SolverFailure(`the system is singular or nearly so at f = ${frequencyHz.toPrecision(6)} Hz: a resonance of a closed, lossless space (${detail}). Move the frequency slightly, or add absorption or an open boundary.`, frequencyHz);
 }
 
-export function solveAt(A: ComplexCsr, S: Symbolic, b: ComplexVector, frequencyHz: number, now: () => number): { x: ComplexVector; stats: LinearStats } {
+/** workspace: the factor's memory, kept between frequencies (one per analysis and thread); a fresh one by default. */
+export function solveAt(A: ComplexCsr, S: Symbolic, b: ComplexVector, frequencyHz: number, now: () => number, workspace = new FactorWorkspace(S)): { x: ComplexVector; stats: LinearStats } {
   const t0 = now();
   let N, x;
   try {
-    N = factor(A, S);
+    N = factor(A, S, {}, workspace);
   } catch (e) {
     if (e instanceof SingularSystemError) throw singular(frequencyHz, e.message);
     throw e;
   }
   const t1 = now();
   try {
-    x = solveRefined(A, N, b, REFINEMENT_STEPS);
+    x = solve(N, b);
   } catch (e) {
     if (e instanceof SingularSystemError) throw singular(frequencyHz, e.message);
     throw e;

@@ -10,8 +10,8 @@ import { layerStretches, type AbsorberKind } from '../assembly/layers.ts';
 import { addSurfaceAdmittance, boundaryFaces, type SurfaceFace } from '../assembly/boundary.ts';
 import { addPointLoad, evaluateAt } from '../assembly/sources.ts';
 import { zeroVector, type ComplexCsr, type ComplexVector } from '../linalg/sparse.ts';
-import type { Symbolic } from '../linalg/index.ts';
 import { analyzeMesh, solveAt, type LinearStats } from './linear.ts';
+import { FactorWorkspace, type Symbolic } from '../linalg/index.ts';
 
 export interface RoomModel {
   box: AirBox;
@@ -27,7 +27,7 @@ export interface RoomModel {
   absorber: { kind: AbsorberKind; layers: number; thickness?: number };
 }
 
-export interface RoomPrepared { model: RoomModel; mesh: Mesh; assembly: AssemblyPattern; symbolic: Symbolic; materials: Materials; faces: { element: number; side: Side; admittance: { re: number; im: number } }[] }
+export interface RoomPrepared { model: RoomModel; mesh: Mesh; assembly: AssemblyPattern; symbolic: Symbolic; workspace: FactorWorkspace; materials: Materials; faces: { element: number; side: Side; admittance: { re: number; im: number } }[] }
 
 export interface RoomPoint {
   frequencyHz: number;
@@ -50,7 +50,8 @@ export function prepareRoom(model: RoomModel): RoomPrepared {
   const mesh = buildMesh(grid), assembly = symbolicAssembly(mesh);
   const faces: SurfaceFace[] = model.surfaces.flatMap((s) => boundaryFaces(mesh, s.side, () => true).map((f) => ({ ...f, admittance: s.admittance })));
   const materials = uniformMaterials(mesh.elements.length, model.density, model.density * model.soundSpeed ** 2);
-  return { model, mesh, assembly, symbolic: analyzeMesh(mesh, assembly.pattern), materials, faces };
+  const symbolic = analyzeMesh(mesh, assembly.pattern);
+  return { model, mesh, assembly, symbolic, workspace: new FactorWorkspace(symbolic), materials, faces };
 }
 
 export function roomSystem(prep: RoomPrepared, frequencyHz: number): { A: ComplexCsr; b: ComplexVector } {
@@ -74,6 +75,6 @@ export function solveRoomAt(prep: RoomPrepared, frequencyHz: number, now: () => 
   const t0 = now();
   const { A, b } = roomSystem(prep, frequencyHz);
   const t1 = now();
-  const { x: u, stats } = solveAt(A, prep.symbolic, b, frequencyHz, now);
+  const { x: u, stats } = solveAt(A, prep.symbolic, b, frequencyHz, now, prep.workspace);
   return { frequencyHz, receivers: roomResults(prep, frequencyHz, u), stats: { ...stats, assembleSeconds: (t1 - t0) / 1000 }, field: keepField ? u : undefined };
 }

@@ -15,6 +15,7 @@ import { ductResults, ductSystem, prepareDuct, solveDuctAt, type DuctPoint, type
 import { prepareRoom, roomResults, roomSystem, solveRoomAt, type RoomPoint, type RoomPrepared } from './room.ts';
 import type { Mesh } from '../grid/mesh.ts';
 import type { ReportMeshInfo } from '../report/results.ts';
+import type { PointAccuracy } from './accuracy.ts';
 import { estimateSize, LARGE_PROBLEM_DOFS, ProblemTooLarge } from './size.ts';
 
 /** What the mesh and its factor cost, as reports print it (the report layer owns the shape). */
@@ -24,7 +25,8 @@ export type Prepared =
   | { kind: 'duct'; scenario: NormalisedScenario; geometry: Geometry; duct: DuctPrepared; info: MeshInfo }
   | { kind: 'room'; scenario: NormalisedScenario; geometry: Geometry; room: RoomPrepared; info: MeshInfo };
 
-export type PointResult = ({ kind: 'duct' } & DuctPoint) | ({ kind: 'room' } & RoomPoint);
+/** accuracy: the figures that need no other solve, when the thread that solved the point added them (engine/solve/accuracy.ts). */
+export type PointResult = (({ kind: 'duct' } & DuctPoint) | ({ kind: 'room' } & RoomPoint)) & { accuracy?: PointAccuracy };
 
 const WALL_SIDE: Record<string, Side> = { 'x-': '-x', 'x+': '+x', 'y-': '-y', 'y+': '+y', 'z-': '-z', 'z+': '+z' };
 

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { Matrix, solve as denseSolve } from 'ml-matrix';
-import { analyze, factor, relativeResidual, solve, solveMany, solveRefined } from '../../engine/linalg/index.ts';
+import { analyze, factor, FactorWorkspace, relativeResidual, solve, solveMany, solveRefined } from '../../engine/linalg/index.ts';
 import type { ComplexCsr, ComplexVector } from '../../engine/linalg/sparse.ts';
 import { csrFromTriplets, randomSymmetric, randomVector, rng } from './problems.ts';
 
@@ -98,6 +98,19 @@ describe('factor and solve', () => {
     }
     const other = randomSymmetric(3000, 3, 1);
     expect(() => factor(other, S)).toThrow(RangeError);
+  });
+
+  it('factors in a kept workspace exactly as in fresh memory, and refuses a factor the workspace has since overwritten', () => {
+    const A1 = localRandomSymmetric(3000, 30, 5);
+    const A2: ComplexCsr = { ...A1, re: A1.re.map((v, k) => v * (1 + 0.1 * Math.sin(k))), im: A1.im.map((v) => v - 0.2) };
+    const S = analyze(A1), ws = new FactorWorkspace(S), b = randomVector(A1.n, 8);
+    const N1 = factor(A1, S, {}, ws), x1 = solve(N1, b);
+    const N2 = factor(A2, S, {}, ws), x2 = solve(N2, b);
+    // common practice: the same arithmetic in the same order gives the same bits, whatever the memory held before
+    expect([Array.from(x1.re), Array.from(x1.im)]).toEqual([Array.from(solve(factor(A1, S), b).re), Array.from(solve(factor(A1, S), b).im)]);
+    expect([Array.from(x2.re), Array.from(x2.im)]).toEqual([Array.from(solve(factor(A2, S), b).re), Array.from(solve(factor(A2, S), b).im)]);
+    expect(() => solve(N1, b)).toThrow(/overwritten/);
+    expect(() => factor(A1, analyze(A1), {}, ws)).toThrow(/another analysis/);
   });
 
   it('solves several right-hand sides and refines without harm', () => {
