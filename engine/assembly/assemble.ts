@@ -3,7 +3,7 @@
  * matrix. Symbolic phase once per mesh (pattern and the element-to-CSR scatter map), numeric phase per
  * frequency (1D factors per grid cell and axis, Kronecker element matrices, scatter-add).
  */
-import type { ComplexCsr, SparsePattern } from '../linalg/sparse.ts';
+import type { ComplexCsr, ComplexVector, SparsePattern } from '../linalg/sparse.ts';
 import type { Mesh } from '../grid/mesh.ts';
 import { element1D, elementWork, kroneckerElement, type Matrix1D } from '../fe/element.ts';
 import type { AxisStretch } from '../fe/stretch.ts';
@@ -81,9 +81,14 @@ export function cellFactors(mesh: Mesh, stretches: AxisStretch[][]): Matrix1D[][
   });
 }
 
-/** A = K̃ − ω²M̃ with the given stretches and materials; values into a fresh CSR on the shared pattern. */
-export function assembleHelmholtz(mesh: Mesh, sym: AssemblyPattern, omega: number, stretches: AxisStretch[][], mat: Materials): ComplexCsr {
-  const nnz = sym.pattern.colIdx.length, re = new Float64Array(nnz), im = new Float64Array(nnz);
+/**
+ * A = K̃ − ω²M̃ with the given stretches and materials, a CSR on the shared pattern; its values go into
+ * `into` when given (overwritten: a sweep reuses one pair of arrays), else into fresh arrays.
+ */
+export function assembleHelmholtz(mesh: Mesh, sym: AssemblyPattern, omega: number, stretches: AxisStretch[][], mat: Materials, into?: ComplexVector): ComplexCsr {
+  const nnz = sym.pattern.colIdx.length;
+  if (into && (into.re.length !== nnz || into.im.length !== nnz)) throw new RangeError(`assembleHelmholtz: room for ${into.re.length} values, the pattern has ${nnz}`);
+  const re = into?.re.fill(0) ?? new Float64Array(nnz), im = into?.im.fill(0) ?? new Float64Array(nnz);
   const factors = cellFactors(mesh, stretches);
   const [nx, ny] = mesh.grid.dims, n3 = mesh.numbering.nodesPerElement, w = elementWork(mesh.order), w2 = omega * omega;
   for (let e = 0; e < mesh.elements.length; e++) {

@@ -20,8 +20,8 @@ import { layerStretches, type AbsorberKind, type AbsorptionRange } from '../asse
 import { addSplitLoad } from '../assembly/injection.ts';
 import { addSurfaceAdmittance, boundaryFaces } from '../assembly/boundary.ts';
 import { zeroVector, type ComplexCsr, type ComplexVector } from '../linalg/sparse.ts';
-import { analyzeMesh, solveAt, type LinearStats } from './linear.ts';
-import { FactorWorkspace, type Symbolic } from '../linalg/index.ts';
+import { analyzeMesh, solveAt, SweepMemory, type LinearStats } from './linear.ts';
+import type { Symbolic } from '../linalg/index.ts';
 import { averagePower, cellSpan, samplePlane, type PlaneRect } from './planes.ts';
 
 /** An equivalent fluid filling a box: 1/ρ and 1/κ, complex for porous media (e^{+jωt}). */
@@ -52,7 +52,7 @@ export interface DuctPrepared {
   mesh: Mesh;
   assembly: AssemblyPattern;
   symbolic: Symbolic;
-  workspace: FactorWorkspace; // the factor's memory, reused at every frequency solved in this thread
+  memory: SweepMemory; // matrix values and factor memory, reused at every frequency solved in this thread
   materials: Materials;
   xyz: Float64Array;
   onTotalSide: Uint8Array;
@@ -106,7 +106,7 @@ export function prepareDuct(model: DuctModel): DuctPrepared {
   const r = outlet.rect, inRect = (_x: number, y: number, z: number) => y > r.y0 && y < r.y1 && z > r.z0 && z < r.z1;
   const outletFaces = typeof outlet.termination === 'object' ? boundaryFaces(mesh, '+x', inRect).map((f) => ({ element: f.element, side: '+x' as const })) : [];
   const symbolic = analyzeMesh(mesh, assembly.pattern);
-  return { model, mesh, assembly, symbolic, workspace: new FactorWorkspace(symbolic), materials, xyz, onTotalSide, outletFaces, planes };
+  return { model, mesh, assembly, symbolic, memory: new SweepMemory(symbolic), materials, xyz, onTotalSide, outletFaces, planes };
 }
 
 /** The material table at one frequency: air in slot 0, each box's medium after it. */
@@ -145,12 +145,12 @@ export function portRange(k: number, rects: PlaneRect[]): AbsorptionRange {
   return { propagating, evanescent };
 }
 
-/** The assembled system and right-hand side at one frequency (also what `export-system` writes). */
-export function ductSystem(prep: DuctPrepared, frequencyHz: number): { A: ComplexCsr; b: ComplexVector } {
+/** The assembled system and right-hand side at one frequency (also what `export-system` writes); values: where A's values go (default fresh arrays). */
+export function ductSystem(prep: DuctPrepared, frequencyHz: number, values?: ComplexVector): { A: ComplexCsr; b: ComplexVector } {
   const { model, mesh } = prep, { inlet, outlet } = model;
   const omega = 2 * Math.PI * frequencyHz, k = omega / model.soundSpeed;
   const range = model.absorber.range ?? portRange(k, [inlet.rect, outlet.rect]);
-  const A = assembleHelmholtz(mesh, prep.assembly, omega, layerStretches(mesh.grid, k, { kind: model.absorber.kind, range }), materialsAt(prep, frequencyHz));
+  const A = assembleHelmholtz(mesh, prep.assembly, omega, layerStretches(mesh.grid, k, { kind: model.absorber.kind, range }), materialsAt(prep, frequencyHz), values);
   if (typeof outlet.termination === 'object') {
     const admittance = outlet.termination.admittance;
     addSurfaceAdmittance(A, mesh, prep.assembly, omega, prep.outletFaces.map((f) => ({ ...f, admittance })));
@@ -172,9 +172,9 @@ export function ductSystem(prep: DuctPrepared, frequencyHz: number): { A: Comple
 
 export function solveDuctAt(prep: DuctPrepared, frequencyHz: number, now: () => number, keepField = false): DuctPoint {
   const t0 = now();
-  const { A, b } = ductSystem(prep, frequencyHz);
+  const { A, b } = ductSystem(prep, frequencyHz, prep.memory.matrixValues());
   const t1 = now();
-  const { x: u, stats } = solveAt(A, prep.symbolic, b, frequencyHz, now, prep.workspace);
+  const { x: u, stats } = solveAt(A, prep.symbolic, b, frequencyHz, now, prep.memory.factor);
   return { ...ductResults(prep, frequencyHz, u), stats: { ...stats, assembleSeconds: (t1 - t0) / 1000 }, field: keepField ? u : undefined };
 }
 

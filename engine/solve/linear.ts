@@ -5,7 +5,7 @@
  * ill-conditioned system turned into words about the physics instead of a silent wrong answer.
  */
 import { analyze, factor, solve, latticeDissection, SingularSystemError, FactorWorkspace, type Symbolic } from '../linalg/index.ts';
-import { relativeResidual, type ComplexCsr, type ComplexVector, type SparsePattern } from '../linalg/sparse.ts';
+import { relativeResidual, zeroVector, type ComplexCsr, type ComplexVector, type SparsePattern } from '../linalg/sparse.ts';
 import type { Mesh } from '../grid/mesh.ts';
 
 /** A solution is accepted when ‖Ax − b‖/‖b‖ is below this after refinement. */
@@ -29,7 +29,26 @@ function singular(frequencyHz: number, detail: string): SolverFailure {
   return new SolverFailure(`the system is singular or nearly so at f = ${frequencyHz.toPrecision(6)} Hz: a resonance of a closed, lossless space (${detail}). Move the frequency slightly, or add absorption or an open boundary.`, frequencyHz);
 }
 
-/** workspace: the factor's memory, kept between frequencies (one per analysis and thread); a fresh one by default. */
+/**
+ * What one thread keeps from one frequency of a sweep to the next: the matrix values and the factor's
+ * memory. A sweep then allocates its large arrays once instead of once per frequency; the matrix and
+ * factor of the previous frequency are overwritten, so nothing may hold on to them.
+ */
+export class SweepMemory {
+  readonly factor: FactorWorkspace;
+  private values: ComplexVector | null = null;
+
+  constructor(symbolic: Symbolic) {
+    this.factor = new FactorWorkspace(symbolic);
+  }
+
+  /** Room for the matrix values (nnzA entries), allocated at the first call; the caller overwrites every entry. */
+  matrixValues(): ComplexVector {
+    return (this.values ??= zeroVector(this.factor.symbolic.nnzA));
+  }
+}
+
+/** workspace: the factor's memory, kept between frequencies (SweepMemory.factor); a fresh one by default. */
 export function solveAt(A: ComplexCsr, S: Symbolic, b: ComplexVector, frequencyHz: number, now: () => number, workspace = new FactorWorkspace(S)): { x: ComplexVector; stats: LinearStats } {
   const t0 = now();
   let N, x;

@@ -10,8 +10,8 @@ import { layerStretches, type AbsorberKind } from '../assembly/layers.ts';
 import { addSurfaceAdmittance, boundaryFaces, type SurfaceFace } from '../assembly/boundary.ts';
 import { addPointLoad, evaluateAt } from '../assembly/sources.ts';
 import { zeroVector, type ComplexCsr, type ComplexVector } from '../linalg/sparse.ts';
-import { analyzeMesh, solveAt, type LinearStats } from './linear.ts';
-import { FactorWorkspace, type Symbolic } from '../linalg/index.ts';
+import { analyzeMesh, solveAt, SweepMemory, type LinearStats } from './linear.ts';
+import type { Symbolic } from '../linalg/index.ts';
 
 export interface RoomModel {
   box: AirBox;
@@ -27,7 +27,7 @@ export interface RoomModel {
   absorber: { kind: AbsorberKind; layers: number; thickness?: number };
 }
 
-export interface RoomPrepared { model: RoomModel; mesh: Mesh; assembly: AssemblyPattern; symbolic: Symbolic; workspace: FactorWorkspace; materials: Materials; faces: { element: number; side: Side; admittance: { re: number; im: number } }[] }
+export interface RoomPrepared { model: RoomModel; mesh: Mesh; assembly: AssemblyPattern; symbolic: Symbolic; memory: SweepMemory; materials: Materials; faces: { element: number; side: Side; admittance: { re: number; im: number } }[] }
 
 export interface RoomPoint {
   frequencyHz: number;
@@ -51,12 +51,13 @@ export function prepareRoom(model: RoomModel): RoomPrepared {
   const faces: SurfaceFace[] = model.surfaces.flatMap((s) => boundaryFaces(mesh, s.side, () => true).map((f) => ({ ...f, admittance: s.admittance })));
   const materials = uniformMaterials(mesh.elements.length, model.density, model.density * model.soundSpeed ** 2);
   const symbolic = analyzeMesh(mesh, assembly.pattern);
-  return { model, mesh, assembly, symbolic, workspace: new FactorWorkspace(symbolic), materials, faces };
+  return { model, mesh, assembly, symbolic, memory: new SweepMemory(symbolic), materials, faces };
 }
 
-export function roomSystem(prep: RoomPrepared, frequencyHz: number): { A: ComplexCsr; b: ComplexVector } {
+/** values: where A's values go (default fresh arrays). */
+export function roomSystem(prep: RoomPrepared, frequencyHz: number, values?: ComplexVector): { A: ComplexCsr; b: ComplexVector } {
   const { model, mesh } = prep, omega = 2 * Math.PI * frequencyHz, k = omega / model.soundSpeed;
-  const A = assembleHelmholtz(mesh, prep.assembly, omega, layerStretches(mesh.grid, k, { kind: model.absorber.kind }), prep.materials);
+  const A = assembleHelmholtz(mesh, prep.assembly, omega, layerStretches(mesh.grid, k, { kind: model.absorber.kind }), prep.materials, values);
   addSurfaceAdmittance(A, mesh, prep.assembly, omega, prep.faces);
   const b = zeroVector(A.n);
   // b_i = jωQ φ_i(x₀) for a monopole of volume velocity Q (peak)
@@ -73,8 +74,8 @@ export function roomResults(prep: RoomPrepared, frequencyHz: number, u: ComplexV
 
 export function solveRoomAt(prep: RoomPrepared, frequencyHz: number, now: () => number, keepField = false): RoomPoint {
   const t0 = now();
-  const { A, b } = roomSystem(prep, frequencyHz);
+  const { A, b } = roomSystem(prep, frequencyHz, prep.memory.matrixValues());
   const t1 = now();
-  const { x: u, stats } = solveAt(A, prep.symbolic, b, frequencyHz, now, prep.workspace);
+  const { x: u, stats } = solveAt(A, prep.symbolic, b, frequencyHz, now, prep.memory.factor);
   return { frequencyHz, receivers: roomResults(prep, frequencyHz, u), stats: { ...stats, assembleSeconds: (t1 - t0) / 1000 }, field: keepField ? u : undefined };
 }
