@@ -8,6 +8,7 @@ export interface DuctCase { name: string; order: number; topHz: number; chamberL
 export const FACTOR_CASES: DuctCase[] = [
   { name: 'small', order: 2, topHz: 1250, chamberLength: 3 },
   { name: 'medium', order: 3, topHz: 1400, chamberLength: 4 },
+  { name: 'long', order: 3, topHz: 1400, chamberLength: 8 },
   { name: 'large', order: 4, topHz: 1600, chamberLength: 10 },
 ];
 
