@@ -1,8 +1,9 @@
 /**
  * One worker thread of the pool (pool.ts): prepares the scenario once, then solves one frequency per
  * 'solve' message and posts each result, with the accuracy figures that need no other solve, as soon as
- * it is ready, the field's arrays transferred rather than copied. A failure at one frequency is reported and the worker goes on with the next. An order-check
- * job ('solve' with finer) is solved on the scenario at element order p + 1, prepared on the first such job.
+ * it is ready, the field's arrays transferred rather than copied. A failure at one frequency is reported
+ * and the worker goes on with the next. An order-check job ('solve' with finer) is solved on the scenario
+ * at element order p + 1, prepared on the first such job.
  */
 import { parentPort, workerData } from 'node:worker_threads';
 import { performance } from 'node:perf_hooks';
