@@ -4,7 +4,7 @@
  * prepares the case, times assembly, analysis, factorisation and one solve, measures the resident-set
  * peak of the factorisation alone, writes A.mtx and b.mtx into OUTDIR and prints one JSON line.
  */
-import { createWriteStream, readFileSync, writeFileSync } from 'node:fs';
+import { createWriteStream, writeFileSync } from 'node:fs';
 import { once } from 'node:events';
 import { join } from 'node:path';
 import { readScenario } from '../engine/scenario/index.ts';
@@ -12,29 +12,13 @@ import { prepareScenario, systemAt } from '../engine/solve/scenario.ts';
 import { analyzeMesh } from '../engine/solve/linear.ts';
 import { factor, solve, matrixMarketChunks, writeMatrixMarketVector, relativeResidual } from '../engine/linalg/index.ts';
 import { chamberScenario, FACTOR_CASES } from './scenarios.ts';
+import { peakBytes, resetPeak } from './memory.ts';
 
 const [name, outDir] = process.argv.slice(2);
 const c = FACTOR_CASES.find((x) => x.name === name);
 if (!c || !outDir) throw new Error('usage: factor-case.ts NAME OUTDIR');
 const gc = (globalThis as { gc?: () => void }).gc ?? (() => {});
 const now = () => performance.now() / 1000;
-
-/** Peak resident set since the last reset (Linux VmHWM), or the process's maxRSS when /proc is missing. */
-function peakBytes(): number {
-  try {
-    return Number(/VmHWM:\s+(\d+)/.exec(readFileSync('/proc/self/status', 'utf8'))![1]) * 1024;
-  } catch {
-    return process.resourceUsage().maxRSS * 1024;
-  }
-}
-function resetPeak(): boolean {
-  try {
-    writeFileSync('/proc/self/clear_refs', '5'); // Linux ≥ 4.0: resets VmHWM to the current RSS
-    return true;
-  } catch {
-    return false;
-  }
-}
 
 const p = prepareScenario(readScenario(chamberScenario(c)).scenario, { maxDofs: Infinity });
 if (p.kind !== 'duct') throw new Error('a duct case');
