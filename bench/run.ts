@@ -272,20 +272,6 @@ if (!skip.has('startup')) {
 }
 
 // ---- 6: the largest duct in 8 GiB ----
-/** Bytes of every typed array reachable from a value, each buffer counted once. */
-function typedArrayBytes(v: unknown, seen = new Set<unknown>()): number {
-  if (v === null || typeof v !== 'object' || seen.has(v)) return 0;
-  seen.add(v);
-  if (ArrayBuffer.isView(v)) {
-    if (seen.has(v.buffer)) return 0;
-    seen.add(v.buffer);
-    return v.buffer.byteLength;
-  }
-  let sum = 0;
-  for (const x of Array.isArray(v) ? v : Object.values(v)) sum += typedArrayBytes(x, seen);
-  return sum;
-}
-
 interface SolvedCase { L: number; dofs: number; prepareSeconds: number; assembleSeconds: number; factorSeconds: number; solveSeconds: number; tlDb: number; energyBalance: number; residual: number; peakBytes: number }
 
 function solveCase(order: number, topHz: number, L: number): SolvedCase | string {
@@ -296,16 +282,10 @@ function solveCase(order: number, topHz: number, L: number): SolvedCase | string
 
 if (!skip.has('largest')) {
   const base = FACTOR_CASES[FACTOR_CASES.length - 1];
-  /**
-   * What one solve holds at its peak (the factorisation): the factor's own estimate, the matrix values, every
-   * array the prepared problem keeps (mesh, pattern, scatter map, analysis, coordinates), the vectors of the
-   * solve and the runtime itself (this process's resident set before any case, the same Node and modules).
-   */
+  /** What one solve holds at its peak: the worker's own estimate (prepared problem, matrix, factor, vectors) and the runtime (this process's resident set before any case: the same Node and modules). */
   const estimate = (L: number) => {
-    const p = prepareScenario(readScenario(chamberScenario({ ...base, chamberLength: L })).scenario, { maxDofs: Infinity });
-    if (p.kind !== 'duct') throw new Error('duct');
-    const i = p.info;
-    return { L, dofs: i.dofs, factor: i.memoryEstimateBytes, total: i.memoryEstimateBytes + 16 * i.nnz + typedArrayBytes(p) + 8 * 16 * i.dofs + runtimeBytes };
+    const i = prepareScenario(readScenario(chamberScenario({ ...base, chamberLength: L })).scenario, { maxDofs: Infinity }).info;
+    return { L, dofs: i.dofs, factor: i.memoryEstimateBytes, total: i.workerMemoryBytes + runtimeBytes };
   };
   console.error('largest duct in 8 GiB …');
   const budget = 8 * GIB, tried = [estimate(base.chamberLength), estimate(2 * base.chamberLength)];
@@ -319,7 +299,7 @@ if (!skip.has('largest')) {
   const fit = tried.filter((t) => t.total <= budget).sort((x, y) => y.L - x.L)[0];
   say('## 6. The longest duct in 8 GiB');
   say();
-  say(`Case "${base.name}" (order ${base.order}, ${base.topHz} Hz, 0.5 × 0.4 m chamber) with a longer chamber. Searched with an estimate (the factor's symbolic estimate, the matrix values, every array of the prepared problem, the solve's vectors and the runtime's own ${mb(runtimeBytes)} MiB), then the longest that fits solved at ${base.topHz} Hz the way \`quietgrid solve\` does (bench/solve-case.ts, a process of its own), its peak resident set measured from the start of that process; if the peak is over 8 GiB the chamber is shortened by the overshoot and solved again.`);
+  say(`Case "${base.name}" (order ${base.order}, ${base.topHz} Hz, 0.5 × 0.4 m chamber) with a longer chamber. Searched with an estimate (\`workerMemoryBytes\` of the summary: the prepared problem's arrays, the matrix values, the factor's symbolic estimate and the solve's vectors; and the runtime's own ${mb(runtimeBytes)} MiB), then the longest that fits solved at ${base.topHz} Hz the way \`quietgrid solve\` does (bench/solve-case.ts, a process of its own), its peak resident set measured from the start of that process; if the peak is over 8 GiB the chamber is shortened by the overshoot and solved again.`);
   say();
   table(['chamber m', 'dofs', 'factor estimate MiB', 'total estimate MiB'], tried.map((t) => [fmt(t.L, 1), String(t.dofs), mb(t.factor), mb(t.total)]));
   const solved: SolvedCase[] = [];

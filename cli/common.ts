@@ -221,9 +221,10 @@ export function prepareGuarded(loaded: Loaded, confirmed: boolean, freeBytes: nu
     // prepareScenario refuses what the engine cannot model, naming the field.
     throw new UsageError(`${loaded.path}: cannot set up the problem: ${e instanceof Error ? e.message : String(e)}`);
   }
-  const need = prepared.info.memoryEstimateBytes, free = freeBytes;
+  // freeBytes was read before the problem was prepared, so the prepared arrays count against it too
+  const need = prepared.info.workerMemoryBytes, free = freeBytes;
   if (need > 0.8 * free) {
-    throw new UsageError(`${loaded.path}: one frequency needs about ${megabytes(need)} for its factor (estimated from the symbolic analysis) but only ${megabytes(free)} is free: ` +
+    throw new UsageError(`${loaded.path}: one frequency needs about ${megabytes(need)} (its factor alone ${megabytes(prepared.info.memoryEstimateBytes)}, estimated from the symbolic analysis) but only ${megabytes(free)} is free: ` +
       'lower mesh.order or mesh.pointsPerWavelength, lower the sweep\'s top frequency, or split the sweep and solve the high frequencies on a larger machine (quietgrid solve --frequencies …)');
   }
   return prepared;

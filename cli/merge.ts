@@ -104,6 +104,7 @@ export function mergeRuns(runs: readonly Run[]): ReturnType<typeof buildReport> 
   const info: ReportMeshInfo = {
     order: s0.order, pointsPerWavelength: s0.pointsPerWavelength, topFrequencyHz: s0.topFrequencyHz, absorberKind: s0.absorberKind, layers: s0.layers,
     elements: s0.elements, dofs: s0.dofs, nnz: s0.nnz, factorNonzeros: s0.factorNonzeros, factorFlops: s0.factorFlops, memoryEstimateBytes: s0.memoryEstimateBytes,
+    workerMemoryBytes: s0.workerMemoryBytes, // absent from the summaries of older versions: then absent here too
   };
   const sum = (f: (s: Summary) => number) => runs.reduce((acc, r) => acc + f(r.summary), 0);
   const report = buildReport({

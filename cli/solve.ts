@@ -78,7 +78,7 @@ export async function solveCommand(args: string[], io: Io): Promise<number> {
   const prepared = prepareGuarded(loaded, values.yes === true);
   describeRun(loaded, prepared, io);
   const jobs = frequencies.length + checks.length;
-  const workers = requestedWorkers ?? defaultWorkerCount(jobs, prepared.info.memoryEstimateBytes);
+  const workers = requestedWorkers ?? defaultWorkerCount(jobs, prepared.info.workerMemoryBytes);
   io.out(`Solving ${frequencies.length} frequenc${frequencies.length === 1 ? 'y' : 'ies'} (${hz(frequencies[0])}–${hz(frequencies[frequencies.length - 1])} Hz) ${Math.min(workers, jobs) > 1 ? `in ${Math.min(workers, jobs)} worker threads` : 'in the main thread'}`);
   io.out(checks.length === 0
     ? 'Order check: off (--no-check-order)'
@@ -113,7 +113,7 @@ function describeRun(loaded: Loaded, prepared: Prepared, io: Io): void {
   const { scenario: s } = loaded, i = prepared.info;
   io.out(`Scenario: ${s.title} (${s.kind})`);
   io.out(`Mesh: order ${i.order}, ${i.elements} elements, ${i.dofs} dofs, ${i.layers} absorbing layers (${i.absorberKind}), graded for ${hz(i.topFrequencyHz)} Hz at ${i.pointsPerWavelength} points per wavelength`);
-  io.out(`Solver: ${i.nnz} matrix entries, ${i.factorNonzeros} factor entries, about ${megabytes(i.memoryEstimateBytes)} per frequency and worker`);
+  io.out(`Solver: ${i.nnz} matrix entries, ${i.factorNonzeros} factor entries; memory about ${megabytes(i.workerMemoryBytes)} per worker, of which the factor ${megabytes(i.memoryEstimateBytes)}`);
   for (const line of [...describeDefaults(s), ...describeWarnings(loaded.warnings)]) io.out(line);
 }
 

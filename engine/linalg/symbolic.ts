@@ -38,7 +38,7 @@ export interface Symbolic {
   stackPeak: number; // complex entries of the update-matrix stack at its peak
   workEntries: number; // complex entries of the dense kernel workspace
   maxFront: number; // largest front order ns + m
-  memoryBytes: number; // estimated peak bytes of factor(): factor + stack + workspace + maps
+  memoryBytes: number; // bytes of factor()'s memory (FactorWorkspace): factor + stack + workspace + maps
 }
 
 /** Analyses the pattern once; perm (perm[new] = old) defaults to minimumDegree(p). */
@@ -101,7 +101,8 @@ function supernodalStructure(p: SparsePattern, perm: Int32Array, parent: Int32Ar
     nnzL += colCount[j];
     flops += 4 * r * (r + 1) + 6 * r;
   }
-  const memoryBytes = 16 * (sizes.storedEntries + sizes.stackPeak + sizes.workEntries + n) + 4 * 3 * n;
+  // the arrays of a FactorWorkspace (factor.ts): panels, stack and work (complex), D and 1/D (4 reals a column), row scales, map, and two front-sized index arrays
+  const memoryBytes = 16 * (sizes.storedEntries + sizes.stackPeak + sizes.workEntries) + (32 + 8 + 4) * n + 2 * 4 * sizes.maxFront;
   return {
     n, nnzA: p.rowPtr[n], perm, pinv, parent, colCount, nnzL, flops, nSuper, superStart, superParent,
     childPtr, child, rowPtr, rowIdx, ...sizes, memoryBytes,

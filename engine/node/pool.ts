@@ -82,11 +82,11 @@ function emptyOutcome(workers: number): PoolOutcome {
 const DEFAULT_ENTRY = new URL('./worker.mjs', import.meta.url);
 
 /**
- * How many workers fit: at most the cores, the frequencies, and what free memory holds, taking each
- * worker to need twice the factorisation's estimate (the matrix, mesh and vectors come on top).
+ * How many workers fit: at most the cores, the frequencies, and what free memory holds, each worker
+ * holding its own prepared problem, matrix, factor and vectors (MeshInfo.workerMemoryBytes).
  */
-export function defaultWorkerCount(frequencies: number, memoryEstimateBytes: number): number {
-  const byMemory = Math.floor((0.8 * freemem()) / Math.max(1, 2 * memoryEstimateBytes));
+export function defaultWorkerCount(frequencies: number, workerMemoryBytes: number): number {
+  const byMemory = Math.floor((0.8 * freemem()) / Math.max(1, workerMemoryBytes));
   return Math.max(1, Math.min(availableParallelism(), frequencies, byMemory));
 }
 

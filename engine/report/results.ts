@@ -40,7 +40,8 @@ export interface ReportMeshInfo {
   nnz: number;
   factorNonzeros: number;
   factorFlops: number;
-  memoryEstimateBytes: number;
+  memoryEstimateBytes: number; // the factorisation alone (symbolic estimate)
+  workerMemoryBytes: number; // what one worker holds while it solves: prepared problem, matrix, factor, vectors
 }
 
 interface PointStats { assembleSeconds: number; factorSeconds: number; solveSeconds: number; perturbedPivots: number }
@@ -125,6 +126,7 @@ export interface Summary {
   factorNonzeros: number;
   factorFlops: number;
   memoryEstimateBytes: number;
+  workerMemoryBytes: number;
   peakMemoryBytes: number | null;
   cutOnHz: { section: string; modes: { m: number; n: number; hz: number }[] }[];
   timing: { assemble_s: number; factor_s: number; solve_s: number; total_s: number };
@@ -286,7 +288,7 @@ function summary(input: ReportInput, points: readonly ReportPoint[], columns: Re
   const out: Summary = {
     title: s.title, kind: s.kind, dofs: info.dofs, nnz: info.nnz, order: info.order, pointsPerWavelength: info.pointsPerWavelength, topFrequencyHz: info.topFrequencyHz,
     layers: info.layers, absorberKind: info.absorberKind, elements: info.elements, factorNonzeros: info.factorNonzeros, factorFlops: info.factorFlops,
-    memoryEstimateBytes: info.memoryEstimateBytes, peakMemoryBytes: input.peakMemoryBytes ?? null,
+    memoryEstimateBytes: info.memoryEstimateBytes, workerMemoryBytes: info.workerMemoryBytes, peakMemoryBytes: input.peakMemoryBytes ?? null,
     cutOnHz: input.cutOns.map((c) => ({ section: c.section, modes: c.modes.map((m) => ({ m: m.m, n: m.n, hz: m.frequencyHz })) })),
     timing: timing(points, input.totalSeconds),
     perturbedPivots: points.reduce((sum, p) => sum + p.stats.perturbedPivots, 0),

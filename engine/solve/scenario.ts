@@ -16,7 +16,7 @@ import { prepareRoom, roomResults, roomSystem, solveRoomAt, type RoomPoint, type
 import type { Mesh } from '../grid/mesh.ts';
 import type { ReportMeshInfo } from '../report/results.ts';
 import type { PointAccuracy } from './accuracy.ts';
-import { estimateSize, LARGE_PROBLEM_DOFS, ProblemTooLarge } from './size.ts';
+import { estimateSize, LARGE_PROBLEM_DOFS, ProblemTooLarge, typedArrayBytes, workerMemoryBytes } from './size.ts';
 
 /** What the mesh and its factor cost, as reports print it (the report layer owns the shape). */
 export type MeshInfo = ReportMeshInfo;
@@ -53,7 +53,7 @@ export function prepareScenario(s: NormalisedScenario, opts: PrepareOptions = {}
       outlet: { x: ports.outlet.x, rect: rectOf(ports.outlet.rect), clearFrom: ports.outlet.clearFrom, termination: term },
       incident: { mode: s.duct.incident.mode, amplitude: s.duct.incident.amplitudePa },
     });
-    return { kind: 'duct', scenario: s, geometry, duct, info: info(s, duct.mesh, duct.assembly.pattern.colIdx.length, duct.symbolic, top) };
+    return { kind: 'duct', scenario: s, geometry, duct, info: info(s, duct.mesh, duct.assembly.pattern.colIdx.length, duct.symbolic, top, typedArrayBytes(duct)) };
   }
   const layout = geometry.room!, rhoC = s.air.density * s.air.soundSpeed;
   const walls = Object.entries(layout.walls);
@@ -63,13 +63,16 @@ export function prepareScenario(s: NormalisedScenario, opts: PrepareOptions = {}
     surfaces: walls.filter(([, w]) => typeof w === 'object').map(([k, w]) => ({ side: WALL_SIDE[k], admittance: surfaceAdmittance(w as { absorption: number } | { impedance: [number, number] }, rhoC) })),
     sources: layout.sources, receivers: layout.receivers,
   });
-  return { kind: 'room', scenario: s, geometry, room, info: info(s, room.mesh, room.assembly.pattern.colIdx.length, room.symbolic, top) };
+  return { kind: 'room', scenario: s, geometry, room, info: info(s, room.mesh, room.assembly.pattern.colIdx.length, room.symbolic, top, typedArrayBytes(room)) };
 }
 
-function info(s: NormalisedScenario, mesh: Mesh, nnz: number, sym: { nnzL: number; flops: number; memoryBytes: number }, top: number): MeshInfo {
+/** preparedBytes: the typed arrays the prepared problem keeps (its sweep memory is not allocated yet). */
+function info(s: NormalisedScenario, mesh: Mesh, nnz: number, sym: { nnzL: number; flops: number; memoryBytes: number }, top: number, preparedBytes: number): MeshInfo {
+  const dofs = mesh.numbering.ndofs;
   return {
     order: s.mesh.order, pointsPerWavelength: s.mesh.pointsPerWavelength, topFrequencyHz: top, absorberKind: s.absorber.kind, layers: s.absorber.layers,
-    elements: mesh.elements.length, dofs: mesh.numbering.ndofs, nnz, factorNonzeros: sym.nnzL, factorFlops: sym.flops, memoryEstimateBytes: sym.memoryBytes,
+    elements: mesh.elements.length, dofs, nnz, factorNonzeros: sym.nnzL, factorFlops: sym.flops, memoryEstimateBytes: sym.memoryBytes,
+    workerMemoryBytes: workerMemoryBytes(preparedBytes, nnz, dofs, sym.memoryBytes),
   };
 }
 

@@ -53,3 +53,30 @@ export function estimateSize(s: NormalisedScenario, g: Geometry): SizeEstimate {
   }
   return { elements, dofs, maxElementSize: hmax };
 }
+
+/** Bytes of every typed array reachable from a value, each buffer counted once (functions are not entered). */
+export function typedArrayBytes(v: unknown, seen = new Set<unknown>()): number {
+  if (v === null || typeof v !== 'object' || seen.has(v)) return 0;
+  seen.add(v);
+  if (ArrayBuffer.isView(v)) {
+    if (seen.has(v.buffer)) return 0;
+    seen.add(v.buffer);
+    return v.buffer.byteLength;
+  }
+  let sum = 0;
+  for (const x of Array.isArray(v) ? v : Object.values(v)) sum += typedArrayBytes(x, seen);
+  return sum;
+}
+
+/** Complex vectors alive at once in a solve: right-hand side, incident field, solution, residual, correction and the solves' own. */
+const SOLVE_VECTORS = 8;
+
+/**
+ * What one worker holds at its peak while it solves a frequency: the prepared problem's own arrays (mesh,
+ * pattern, scatter map, analysis, coordinates: `preparedBytes`), the matrix values (16 bytes an entry),
+ * the factorisation's memory (the symbolic estimate) and the solve's vectors. The runtime itself comes on top.
+ */
+export function workerMemoryBytes(preparedBytes: number, nnz: number, dofs: number, factorBytes: number): number {
+  return preparedBytes + 16 * nnz + factorBytes + SOLVE_VECTORS * 16 * dofs;
+}
+

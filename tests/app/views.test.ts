@@ -90,7 +90,7 @@ function ductPoint(f: number, tl: number, over: Partial<Extract<AssessedPoint, {
 function solvedRun(points: AssessedPoint[], d: Draft): RunState {
   const s = normalised(d);
   let r = preparedRun(startedRun(1, s, d, [], 2, 0), {
-    order: 4, pointsPerWavelength: 6, topFrequencyHz: 500, absorberKind: 'discrete', layers: 3, elements: 1, dofs: 1, nnz: 1, factorNonzeros: 1, factorFlops: 1, memoryEstimateBytes: 1,
+    order: 4, pointsPerWavelength: 6, topFrequencyHz: 500, absorberKind: 'discrete', layers: 3, elements: 1, dofs: 1, nnz: 1, factorNonzeros: 1, factorFlops: 1, memoryEstimateBytes: 1, workerMemoryBytes: 2,
   }, [{ section: 'chamber', modes: [{ m: 1, n: 0, frequencyHz: 381 }, { m: 5, n: 5, frequencyHz: 9000 }] }]);
   for (const p of points) r = frequencySolved(frequencyStarted(r, p.frequencyHz, 0), p, 1000);
   return finishedRun(r, false, [], 2000);

@@ -11,7 +11,7 @@ import { checkStarted, finishedRun, frequencyFailed, frequencySolved, frequencyS
 import { validateScenario } from '../../engine/scenario/index.ts';
 import { demoById } from '../../app/renderer/model/demos.ts';
 
-const INFO: MeshInfo = { order: 4, pointsPerWavelength: 6, topFrequencyHz: 500, absorberKind: 'discrete', layers: 3, elements: 10, dofs: 100, nnz: 1000, factorNonzeros: 500, factorFlops: 1e6, memoryEstimateBytes: 1e6 };
+const INFO: MeshInfo = { order: 4, pointsPerWavelength: 6, topFrequencyHz: 500, absorberKind: 'discrete', layers: 3, elements: 10, dofs: 100, nnz: 1000, factorNonzeros: 500, factorFlops: 1e6, memoryEstimateBytes: 1e6, workerMemoryBytes: 2e6 };
 
 const ACCURACY: AccuracyInfo = { reading: 'r', flagMeanings: {}, thresholds: {}, planeWaveValidBelowHz: null };
 const ready = (orderCheckHz: number[] = []): FromWorker => ({ type: 'ready', info: INFO, cutOns: [], accuracy: ACCURACY, orderCheckHz, prepareSeconds: 0 });

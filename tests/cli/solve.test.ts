@@ -25,7 +25,7 @@ const DUCT_HEADER = ['frequency_hz', 'tl_db', 'tl_decomposition_db', 'inlet_refl
 const ROOM_ACCURACY = ['reflection_estimate', 'order_check_db', 'flags'];
 const FLAGS = ['layer_reflection', 'energy', 'order', 'plane_wave_invalid'];
 const BAND_HEADER = ['band_hz', 'band_low_hz', 'band_high_hz', 'bandwidth', 'points'];
-const SUMMARY_FIELDS = ['title', 'kind', 'dofs', 'nnz', 'order', 'layers', 'absorberKind', 'elements', 'factorNonzeros', 'memoryEstimateBytes', 'peakMemoryBytes',
+const SUMMARY_FIELDS = ['title', 'kind', 'dofs', 'nnz', 'order', 'layers', 'absorberKind', 'elements', 'factorNonzeros', 'memoryEstimateBytes', 'workerMemoryBytes', 'peakMemoryBytes',
   'cutOnHz', 'timing', 'defaultsUsed', 'warnings', 'frequenciesHz', 'failures', 'accuracy', 'cautions', 'conventions'];
 
 function column(t: { header: string[]; rows: string[][] }, name: string): string[] {

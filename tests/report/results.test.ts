@@ -6,7 +6,7 @@ import { parseCsv } from '../../engine/report/index.ts';
 const STATS = { assembleSeconds: 0.5, factorSeconds: 2, solveSeconds: 0.25, perturbedPivots: 0 };
 const INFO = {
   order: 4, pointsPerWavelength: 6, topFrequencyHz: 1000, absorberKind: 'discrete', layers: 3, elements: 10, dofs: 1234, nnz: 5678,
-  factorNonzeros: 9000, factorFlops: 1e6, memoryEstimateBytes: 1e6,
+  factorNonzeros: 9000, factorFlops: 1e6, memoryEstimateBytes: 1e6, workerMemoryBytes: 2e6,
 };
 
 function duct(f: number, tlDb: number | null): ReportPoint {
@@ -107,8 +107,8 @@ describe('summary', () => {
       cutOns, failures, frequenciesHz: [500, 125, 250, 200], peakMemoryBytes: 42, warnings: [{ message: 'careful' }],
     }));
     const s = r.summary;
-    expect([s.title, s.kind, s.dofs, s.nnz, s.order, s.layers, s.absorberKind, s.elements, s.factorNonzeros, s.memoryEstimateBytes, s.peakMemoryBytes])
-      .toEqual(['test duct', 'duct', 1234, 5678, 4, 3, 'discrete', 10, 9000, 1e6, 42]);
+    expect([s.title, s.kind, s.dofs, s.nnz, s.order, s.layers, s.absorberKind, s.elements, s.factorNonzeros, s.memoryEstimateBytes, s.workerMemoryBytes, s.peakMemoryBytes])
+      .toEqual(['test duct', 'duct', 1234, 5678, 4, 3, 'discrete', 10, 9000, 1e6, 2e6, 42]);
     expect(s.cutOnHz).toEqual([{ section: 'chamber', modes: [{ m: 1, n: 0, hz: 381.3 }] }]);
     expect(s.timing).toEqual({ assemble_s: 1, factor_s: 4, solve_s: 0.5, total_s: 3 });
     expect(s.frequenciesHz).toEqual([125, 200, 250, 500]);

@@ -9,8 +9,6 @@ import type { MeshInfo } from '../../../engine/solve/scenario.ts';
 const SECONDS_PER_FLOP = 1e-9;
 const SECONDS_PER_ENTRY = 4e-7;
 const OVERHEAD_SECONDS = 0.02;
-/** Each worker holds its own mesh, matrix and factor: take twice the factor's estimate. */
-const MEMORY_FACTOR = 2;
 
 export function predictedSecondsPerFrequency(info: MeshInfo, calibration = 1): number {
   return calibration * (info.factorFlops * SECONDS_PER_FLOP + info.nnz * SECONDS_PER_ENTRY + OVERHEAD_SECONDS);
@@ -20,7 +18,7 @@ export interface RunEstimate { workers: number; seconds: number; memoryBytes: nu
 
 export function estimateRun(info: MeshInfo, frequencies: number, workers: number, calibration = 1, prepareSeconds = 0): RunEstimate {
   const w = Math.max(1, Math.min(workers, frequencies));
-  const perWorkerBytes = MEMORY_FACTOR * info.memoryEstimateBytes;
+  const perWorkerBytes = info.workerMemoryBytes; // each worker holds its own prepared problem, matrix, factor and vectors
   return { workers: w, seconds: prepareSeconds + Math.ceil(frequencies / w) * predictedSecondsPerFrequency(info, calibration), memoryBytes: w * perWorkerBytes, perWorkerBytes };
 }
 
