@@ -68,6 +68,9 @@ interface Ours {
 }
 interface Splu { ordering: string; factorSeconds: number; factorCpuSeconds: number; solveSeconds: number; nnzL: number; nnzU: number; residual: number }
 interface OctaveRun { seconds: number; residual: number }
+/** A SciPy run that gave no figures: stopped at --scipy-timeout, or (why) killed or failed. */
+interface Stopped { ordering: string; stoppedAfter: number; why?: string }
+const isStopped = (s: Splu | Stopped): s is Stopped => 'stoppedAfter' in s;
 
 function runCase(c: DuctCase, dir: string): Ours {
   const r = spawnSync(process.execPath, ['--expose-gc', '--import', 'tsx', join(root, 'bench/factor-case.ts'), c.name, dir], { cwd: root, encoding: 'utf8', maxBuffer: 1 << 24 });
@@ -77,7 +80,7 @@ function runCase(c: DuctCase, dir: string): Ours {
 
 /** One Python process per ordering, so that a slow one can be stopped (--scipy-timeout=SECONDS, default 1800) without losing the other. */
 const SCIPY_TIMEOUT_S = Number(flag('scipy-timeout')[0] ?? 1800);
-function runScipy(dir: string): (Splu | { ordering: string; stoppedAfter: number; why?: string })[] {
+function runScipy(dir: string): (Splu | Stopped)[] {
   return ['MMD_AT_PLUS_A', 'COLAMD'].map((ordering) => {
     const r = spawnSync('/usr/bin/python3', [join(root, 'bench/scipy_splu.py'), join(dir, 'A.mtx'), join(dir, 'b.mtx'), ordering], {
       encoding: 'utf8', maxBuffer: 1 << 24, timeout: SCIPY_TIMEOUT_S * 1000, killSignal: 'SIGKILL',
@@ -137,15 +140,13 @@ for (const c of cases) {
     const ours = runCase(c, dir);
     console.error(`  ours: ${ours.dofs} dofs, factor ${fmt(ours.factorSeconds)} s`);
     const all = scipy ? runScipy(dir) : [];
-    const splu = all.filter((s): s is Splu => !('stoppedAfter' in s));
-    for (const s of all) {
-      if (!('stoppedAfter' in s)) continue;
+    const splu = all.filter((s): s is Splu => !isStopped(s)), stops = all.filter(isStopped);
+    for (const s of stops) {
       stopped.push(s.why ? `${c.name}: SciPy ${s.ordering} ${s.why} (machine memory ${(totalmem() / GIB).toFixed(1)} GiB); no figures.` : `${c.name}: SciPy ${s.ordering} was stopped after ${s.stoppedAfter} s (--scipy-timeout); the time ratio is below ours / ${s.stoppedAfter} s.`);
     }
     for (const s of splu) console.error(`  SciPy ${s.ordering}: factor ${fmt(s.factorSeconds)} s`);
     const oct = octave ? runOctave(dir) : null;
-    const mmdStop = all.find((s) => s.ordering === 'MMD_AT_PLUS_A' && 'stoppedAfter' in s && !s.why);
-    results.push({ c, ours, splu, oct, mmdTimedOut: mmdStop && 'stoppedAfter' in mmdStop ? mmdStop.stoppedAfter : null });
+    results.push({ c, ours, splu, oct, mmdTimedOut: stops.find((s) => s.ordering === 'MMD_AT_PLUS_A' && !s.why)?.stoppedAfter ?? null });
   } finally {
     rmSync(dir, { recursive: true, force: true });
   }

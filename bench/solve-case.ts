@@ -20,5 +20,5 @@ const point = solvePoint(p, topHz, now);
 if (point.kind !== 'duct') throw new Error('a duct case');
 console.log(JSON.stringify({
   dofs: p.info.dofs, prepareSeconds, assembleSeconds: point.stats.assembleSeconds, factorSeconds: point.stats.factorSeconds, solveSeconds: point.stats.solveSeconds,
-  tlDb: point.tlDb, energyBalance: point.energyBalance, residual: point.stats.residual, peakBytes: peakBytes(), estimateBytes: p.info.memoryEstimateBytes,
+  tlDb: point.tlDb, energyBalance: point.energyBalance, residual: point.stats.residual, peakBytes: peakBytes(),
 }));
