@@ -80,7 +80,7 @@ function EstimateCard({ estimate, frequencies, workers, calibration, quickSize, 
       <h3>Mesh and cost {estimate.status === 'working' && <span className="muted">(updating…)</span>}</h3>
       <table className="kv"><tbody>{rows.map(([k, v]) => <tr key={k}><th scope="row">{k}</th><td data-key={k}>{v}</td></tr>)}</tbody></table>
       {(estimate.tooLarge || allowLarge) && <label className="check confirm"><input type="checkbox" checked={allowLarge} onChange={(e) => onAllowLarge(e.target.checked)} /> Run this large problem anyway</label>}
-      <p className="hint">From preparing the mesh in a worker ({formatSeconds(estimate.prepareSeconds)}). Time {calibration === 1 ? 'from typical solver speed' : 'scaled by what this machine measured on its last run'}; the memory is the solver’s own estimate, doubled for the matrix and mesh.</p>
+      <p className="hint">From preparing the mesh in a worker ({formatSeconds(estimate.prepareSeconds)}). Time {calibration === 1 ? 'from typical solver speed' : 'scaled by what this machine measured on its last run'}; the memory counts what each worker holds: its mesh and analysis, the matrix, the factor (the solver’s own estimate) and the solve’s vectors.</p>
     </div>
   );
 }

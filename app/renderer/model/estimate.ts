@@ -1,7 +1,7 @@
 /**
- * What a run will cost before it starts: memory from the solver's own estimate per worker, time from
- * the factorisation's operation count and the matrix size, scaled by what this machine measured on
- * its last run (a single factor kept between sessions).
+ * What a run will cost before it starts: memory from what each worker holds (MeshInfo.workerMemoryBytes),
+ * time from the factorisation's operation count and the matrix size, scaled by what this machine
+ * measured on its last run (a single factor kept between sessions).
  */
 import type { MeshInfo } from '../../../engine/solve/scenario.ts';
 
