@@ -121,3 +121,14 @@ function evaluate(chain: Chain, options: PlaneWaveOptions) {
   requirePositive('outletArea', outletArea);
   return { t: chainFourPole(chain, k, rhoC), zi: rhoC / inletArea, zo: rhoC / outletArea, inletArea, outletArea };
 }
+
+/**
+ * Complex transmission ratio p_t/p_i with an anechoic outlet: the outlet's forward wave over the
+ * inlet's incident wave, 2/(T11 + T12/Z_o + Z_i·T21 + Z_i·T22/Z_o). The transmitted power ratio is
+ * |p_t/p_i|²·S_o/S_i, so planeWaveTl = −10·log10 of it.
+ */
+export function planeWaveTransmission(chain: Chain, options: PlaneWaveOptions): Complex {
+  const { t, zi, zo } = evaluate(chain, options);
+  const ratio = scale(add(add(t.t11, scale(t.t12, 1 / zo)), scale(add(t.t21, scale(t.t22, 1 / zo)), zi)), 0.5);
+  return div(cx(1), ratio);
+}
