@@ -52,6 +52,7 @@ export interface Pole {
   residueIm: Float64Array; // channels
 }
 
+const CLEANUP_ROUNDS = 4;
 const DEFAULTS = { tolerance: 1e-13, maxSupport: 100, cleanup: true, cleanupTolerance: 1e-13 };
 
 /**
@@ -77,12 +78,12 @@ export function aaa(frequencyHz: Float64Array, valueRe: Float64Array, valueIm: F
   const data: Scaled = { n, channels, t, gRe, gIm };
   let support = greedy(data, o.tolerance, Math.min(o.maxSupport, n));
   let weights = solveWeights(data, support);
-  if (o.cleanup && support.length > 1) {
+  // A refit after a cleanup can leave a new doublet: repeat a few times (each round removes support points).
+  for (let round = 0; o.cleanup && round < CLEANUP_ROUNDS && support.length > 1; round++) {
     const spurious = spuriousSupport(data, support, weights, o.cleanupTolerance);
-    if (spurious.size > 0) {
-      support = support.filter((k) => !spurious.has(k));
-      weights = solveWeights(data, support);
-    }
+    if (spurious.size === 0) break;
+    support = support.filter((k) => !spurious.has(k));
+    weights = solveWeights(data, support);
   }
   const m = support.length;
   const fit: RationalFit = {
@@ -113,7 +114,7 @@ function greedy(d: Scaled, tolerance: number, maxSupport: number): number[] {
       bestError = max;
       best = [...support];
     }
-    if (max <= tolerance || support.length >= maxSupport || at < 0) break;
+    if (support.length > 0 && (max <= tolerance || support.length >= maxSupport || at < 0)) break;
     support.push(at);
     weights = solveWeights(d, support);
   }

@@ -263,7 +263,7 @@ function bandResult(curve: SpectrumCurve | null, table: SampleTable, band: Band,
     errorDb: e, fitErrorDb: errorDb(mean, integral.fitError), quadratureErrorDb: errorDb(mean, integral.quadratureError),
   };
   if (!(mean > 0) || !Number.isFinite(mean)) return { ...result, reason: `the band mean of the power quantity is ${mean}: no level can be formed` };
-  if (solves < minSolves) return { ...result, reason: `only ${solves} solved frequencies in the band, edges included (at least ${minSolves} needed)` };
+  if (solves < minSolves) return { ...result, reason: `only ${solves} solved ${solves === 1 ? 'frequency' : 'frequencies'} in the band, edges included (at least ${minSolves} needed)` };
   if (!(e <= tol)) return { ...result, reason: `estimated error ±${Number.isFinite(e) ? e.toFixed(2) : '∞'} dB exceeds the ${tol} dB tolerance: more frequencies must be solved in ${hz(band.lowHz)}–${hz(band.highHz)} Hz` };
   return { ...result, status: 'ok', valueDb: result.provisionalDb };
 }

@@ -9,6 +9,7 @@ import {
   inletImpedance,
   inletReflection,
   planeWaveTl,
+  planeWaveTransmission,
   type Chain,
 } from '../../engine/acoustics/index.ts';
 
@@ -43,6 +44,23 @@ describe('four-pole chains', () => {
       const tl = planeWaveTl(chain, { frequencyHz: f, air });
       // Source: Davis, Stokes, Moore & Stevens, NACA Report 1192 (1954): TL = 10·log10[1 + ¼(m − 1/m)²·sin²(kL)]
       expect(Math.abs(tl - expansionChamberTl(m, waveNumber(f), L))).toBeLessThan(1e-9);
+    }
+  });
+
+  it('gives the complex transmission ratio p_t/p_i whose power ratio is the TL', () => {
+    const chain: Chain = [
+      { kind: 'duct', length: 0.3, area: S },
+      { kind: 'branch', area: 0.5 * S, length: 0.4, end: 'closed' },
+      { kind: 'duct', length: 0.5, area: 4 * S },
+      { kind: 'duct', length: 0.3, area: 2 * S },
+    ];
+    for (const f of FREQS) {
+      const t = planeWaveTransmission(chain, { frequencyHz: f, air });
+      // common practice: τ = |p_t/p_i|²·S_o/S_i for plane waves between anechoic pipes (Munjal, Acoustics of Ducts and Mufflers, 1987)
+      expect(-10 * Math.log10((t.re ** 2 + t.im ** 2) * 2)).toBeCloseTo(planeWaveTl(chain, { frequencyHz: f, air }), 9);
+      const pipe = planeWaveTransmission([{ kind: 'duct', length: 0.37, area: S }], { frequencyHz: f, air });
+      // common practice: a uniform lossless duct only delays the wave, p_t/p_i = e^{−jkL} (e^{+jωt})
+      expect(Math.hypot(pipe.re - Math.cos(waveNumber(f) * 0.37), pipe.im + Math.sin(waveNumber(f) * 0.37))).toBeLessThan(1e-12);
     }
   });
 
