@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { bandsBetween, bandTransmissionLoss, type Band, type Chain } from '../../engine/acoustics/index.ts';
-import { fitPoint, mergeSamples, samplingPolicy, transmissionLossQuantity, type BandResult, type Sample } from '../../engine/spectrum/index.ts';
+import { fitPoint, mergeSamples, pressureLevelQuantity, samplingPolicy, transmissionLossQuantity, type BandResult, type Sample } from '../../engine/spectrum/index.ts';
 import { AIR, chainSolver, chamberChain, chamberTau, denseBandMean, runPolicy, stubChain, stubTau } from './helpers.ts';
 
 const TL = transmissionLossQuantity([{ channel: 0 }]);
@@ -209,5 +209,44 @@ describe('honesty of the error estimate', () => {
     expect(within).toBe(bands);
     expect(bounded / bands).toBeGreaterThanOrEqual(0.95);
     expect(pointsBounded / points).toBeGreaterThanOrEqual(0.9);
+  });
+});
+
+describe('room modes', () => {
+  it('integrates the mean-square pressure of a sum of damped modes band by band and finds each mode as a pole', () => {
+    // p(f) = Σ A_n·f/(f_n² − f² + j·f·f_n/Q): each mode has poles at ±f_n·√(1 − 1/4Q²) + j·f_n/(2Q)
+    const modes: [number, number, number][] = [[34.3, 1, 25], [49.0, -0.6, 30], [57.2, 0.8, 20], [68.6, 0.5, 40], [85.8, -1, 30], [98.0, 0.7, 35], [107.9, 0.4, 25]];
+    const pressure = (f: number): [number, number] => {
+      let re = 0, im = 0;
+      for (const [fn, a, q] of modes) {
+        const dr = fn * fn - f * f, di = (f * fn) / q, d = dr * dr + di * di;
+        re += (a * f * dr) / d;
+        im -= (a * f * di) / d;
+      }
+      return [re, im];
+    };
+    const bands = bandsBetween(25, 125, 3), q = pressureLevelQuantity(0, 'receiver');
+    const policy = samplingPolicy({ bands, quantities: [q] });
+    let solves = 0;
+    const samples = runPolicy(policy, (f) => {
+      solves++;
+      const [re, im] = pressure(f);
+      return { frequencyHz: f, re: [re], im: [im] };
+    });
+    const results = policy.bands(samples);
+    results.forEach((r, i) => {
+      const ref = denseBandMean((f) => 0.5 * Math.hypot(...pressure(f)) ** 2, bands[i], DENSE_PANELS).mean;
+      expect(r.status).toBe('ok');
+      // common practice: band mean-square pressure is the integral of |p|²/2 over the band (IEC 61260-1 band edges), level re (20 µPa)²
+      expect(Math.abs(r.valueDb! - 10 * Math.log10(ref / 4e-10))).toBeLessThan(0.1);
+    });
+    console.log(`room modes: ${solves} solves for ${bands.length} bands (dense reference ${bands.length * DENSE_PANELS * 10})`);
+    expect(solves).toBeLessThanOrEqual((bands.length * DENSE_PANELS * 10) / 4);
+    const poles = policy.curve(samples)!.poles(bands[0].lowHz, bands[bands.length - 1].highHz);
+    for (const [fn, , qn] of modes) {
+      const exact = { re: fn * Math.sqrt(1 - 1 / (4 * qn * qn)), im: fn / (2 * qn) };
+      // common practice: the damped oscillator 1/(f_n² − f² + j·f·f_n/Q) has its pole at f_n·√(1 − 1/4Q²) + j·f_n/(2Q)
+      expect(poles.some((p) => Math.hypot(p.re - exact.re, p.im - exact.im) < 1e-3 * fn)).toBe(true);
+    }
   });
 });
