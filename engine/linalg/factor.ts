@@ -12,6 +12,8 @@
 import type { ComplexCsr } from './sparse.ts';
 import type { Symbolic } from './symbolic.ts';
 import { factorFront, type FrontDiagonal, type PivotPolicy } from './frontal.ts';
+import { createArena, defaultKernel, type FrontArena } from './frontArena.ts';
+import type { KernelKind } from './denseKernels.ts';
 import { NonFiniteMatrixError, SingularSystemError } from './errors.ts';
 
 export interface FactorOptions {
@@ -31,20 +33,26 @@ export interface PivotRecord {
 export interface Numeric {
   symbolic: Symbolic;
   matrix: ComplexCsr; // the matrix factored, kept (not copied) for the residual check and refinement: leave its values alone while N is in use
-  panels: Float64Array; // 2 · storedEntries: supernode panels, see frontal.ts for their layout
+  panels: Float64Array; // 2 · storedEntries: supernode panels, row-major F × ns each (row i: L[i, 0..ns), D on the diagonal, strict upper part zero)
   diagonal: FrontDiagonal; // D and 1/D in the factor's numbering
   perturbed: number; // pivots replaced under the tolerance
   smallestPivot: PivotRecord | null; // the pivot smallest relative to its row scale (null when n = 0)
   workspace: FactorWorkspace; // where panels and diagonal live
   generation: number; // the workspace's count when this factor was made: a later factor() in it overwrites this one
+  kernel: KernelKind; // the dense kernels that computed it
 }
 
 export const DEFAULT_PIVOT_TOLERANCE = 1e-12;
-/** Offsets into the panel and stack arrays are Int32 in the kernels. */
+/** Offsets into the panels are Int32-safe doubles in the solves. */
 const INDEX_LIMIT = 0x7fffffff;
 
 interface FactorArrays {
-  panels: Float64Array; stack: Float64Array; work: Float64Array; map: Int32Array; rel: Int32Array; rowStart: Int32Array; scale: Float64Array; diagonal: FrontDiagonal;
+  panels: Float64Array; map: Int32Array; scale: Float64Array; diagonal: FrontDiagonal; arena: FrontArena;
+}
+
+export interface WorkspaceOptions {
+  /** The dense kernels: 'simd' (WebAssembly, the default where the runtime has it) or 'js'. */
+  kernel?: KernelKind;
 }
 
 /**
@@ -55,26 +63,29 @@ interface FactorArrays {
  */
 export class FactorWorkspace {
   generation = 0;
+  readonly kernel: KernelKind;
   private arrays: FactorArrays | null = null;
 
-  constructor(readonly symbolic: Symbolic) {}
+  constructor(readonly symbolic: Symbolic, opts: WorkspaceOptions = {}) {
+    this.kernel = opts.kernel ?? defaultKernel();
+  }
 
   /** The arrays for one more factorisation (allocated once): what an earlier Numeric in it held is invalid from now on. */
   next(): FactorArrays {
     this.generation++;
-    return (this.arrays ??= allocate(this.symbolic));
+    return (this.arrays ??= allocate(this.symbolic, this.kernel));
   }
 }
 
-function allocate(S: Symbolic): FactorArrays {
-  if (2 * Math.max(S.storedEntries, S.stackPeak) > INDEX_LIMIT) {
-    throw new RangeError(`factor: ${S.storedEntries} factor entries exceed what 32-bit offsets address; the problem is too large for this solver`);
+function allocate(S: Symbolic, kernel: KernelKind): FactorArrays {
+  if (2 * S.storedEntries > 2 ** 53 || 2 * S.maxFront * S.maxFront > INDEX_LIMIT) {
+    throw new RangeError(`factor: fronts of order ${S.maxFront} (${S.storedEntries} factor entries) are too large for this solver`);
   }
   const n = S.n;
   return {
-    panels: new Float64Array(2 * S.storedEntries), stack: new Float64Array(2 * S.stackPeak), work: new Float64Array(2 * S.workEntries),
-    map: new Int32Array(n), rel: new Int32Array(S.maxFront), rowStart: new Int32Array(S.maxFront), scale: new Float64Array(n),
+    panels: new Float64Array(2 * S.storedEntries), map: new Int32Array(n), scale: new Float64Array(n),
     diagonal: { dRe: new Float64Array(n), dIm: new Float64Array(n), invRe: new Float64Array(n), invIm: new Float64Array(n) },
+    arena: createArena(S.arena, kernel),
   };
 }
 
@@ -83,37 +94,41 @@ export function factor(A: ComplexCsr, S: Symbolic, opts: FactorOptions = {}, wor
   checkPattern(A, S);
   if (workspace.symbolic !== S) throw new RangeError('factor: the workspace was made for another analysis');
   const n = S.n;
-  const { panels, stack, work, map, rel, rowStart, scale, diagonal } = workspace.next();
+  const { panels, map, scale, diagonal, arena } = workspace.next();
   const guard = new PivotGuard(S, scale, opts.pivotTolerance ?? DEFAULT_PIVOT_TOLERANCE, opts.maxPerturbed ?? Math.max(8, Math.floor(n / 1000)));
   const { superStart, rowPtr, rowIdx, childPtr, child, panelPtr } = S;
+  const M = arena.f64, I = arena.i32, L = arena.layout, K = arena.kernels, fo = L.front;
   let top = 0; // doubles in use on the stack
   for (let s = 0; s < S.nSuper; s++) {
     const first = superStart[s], ns = superStart[s + 1] - first;
-    const r0 = rowPtr[s], m = rowPtr[s + 1] - r0, F = ns + m;
-    const off = 2 * panelPtr[s];
+    const r0 = rowPtr[s], m = rowPtr[s + 1] - r0, F = ns + m, fs = 2 * F;
     for (let t = 0; t < ns; t++) map[first + t] = t;
     for (let t = 0; t < m; t++) map[rowIdx[r0 + t]] = ns + t;
-    const cOff = top, cLen = m * (m + 1);
-    stack.fill(0, cOff, cOff + cLen);
-    panels.fill(0, off, off + 2 * F * ns); // a reused workspace holds the previous factor here
-    assembleColumns(A, S, first, ns, map, panels, off, scale);
-    let base = cOff;
-    for (let c = childPtr[s + 1] - 1; c >= childPtr[s]; c--) {
+    // the lower triangle, the pivot block whole and one more column below it: every entry the kernels write, so no value outlives its front
+    for (let i = 0; i < F; i++) M.fill(0, fo + i * fs, fo + i * fs + 2 * Math.min(F, i < ns ? ns : i + 2));
+    assembleColumns(A, S, first, ns, map, M, fo, fs, scale);
+    let base = top;
+    for (let c = childPtr[s]; c < childPtr[s + 1]; c++) {
       const mc = rowPtr[child[c] + 1] - rowPtr[child[c]];
       base -= mc * (mc + 1);
     }
     let src = base;
     for (let c = childPtr[s]; c < childPtr[s + 1]; c++) {
-      const ch = child[c];
-      const mc = rowPtr[ch + 1] - rowPtr[ch];
-      extendAdd(stack, src, rowIdx, rowPtr[ch], mc, map, rel, panels, off, ns, cOff);
+      const ch = child[c], rs = rowPtr[ch], mc = rowPtr[ch + 1] - rs;
+      for (let a = 0; a < mc; a++) I[L.rel + a] = map[rowIdx[rs + a]];
+      K.extendAdd(L.stack + src, L.rel, mc, fo, fs);
       src += mc * (mc + 1);
     }
-    factorFront(panels, off, F, ns, stack, cOff, work, first, diagonal, guard, rowStart);
-    stack.copyWithin(base, cOff, cOff + cLen);
-    top = base + cLen;
+    factorFront(arena, F, ns, first, diagonal, guard);
+    const off = 2 * panelPtr[s];
+    for (let i = 0; i < F; i++) panels.set(M.subarray(fo + i * fs, fo + i * fs + 2 * Math.min(i + 1, ns)), off + 2 * i * ns);
+    for (let a = 0; a < m; a++) {
+      const from = fo + (ns + a) * fs + 2 * ns;
+      M.copyWithin(L.stack + base + a * (a + 1), from, from + 2 * (a + 1));
+    }
+    top = base + m * (m + 1);
   }
-  return { symbolic: S, matrix: A, panels, diagonal, perturbed: guard.count, smallestPivot: guard.smallest(), workspace, generation: workspace.generation };
+  return { symbolic: S, matrix: A, panels, diagonal, perturbed: guard.count, smallestPivot: guard.smallest(), workspace, generation: workspace.generation, kernel: arena.kernels.kind };
 }
 
 function checkPattern(A: ComplexCsr, S: Symbolic): void {
@@ -122,8 +137,8 @@ function checkPattern(A: ComplexCsr, S: Symbolic): void {
   }
 }
 
-/** Scatters the lower part (in the factor's order) of A's rows for the front's pivot columns; records row scales. */
-function assembleColumns(A: ComplexCsr, S: Symbolic, first: number, ns: number, map: Int32Array, P: Float64Array, off: number, scale: Float64Array): void {
+/** Scatters the lower part (in the factor's order) of A's rows for the front's pivot columns into the front (row stride fs); records row scales. */
+function assembleColumns(A: ComplexCsr, S: Symbolic, first: number, ns: number, map: Int32Array, M: Float64Array, fo: number, fs: number, scale: Float64Array): void {
   const { rowPtr, colIdx, re, im } = A;
   const { perm, pinv } = S;
   for (let jl = 0; jl < ns; jl++) {
@@ -136,42 +151,11 @@ function assembleColumns(A: ComplexCsr, S: Symbolic, first: number, ns: number, 
       if (mag2 > amax) amax = mag2;
       const i = pinv[colIdx[k]];
       if (i < j) continue;
-      const q = off + 2 * (map[i] * ns + jl);
-      P[q] += vr;
-      P[q + 1] += vi;
+      const q = fo + map[i] * fs + 2 * jl;
+      M[q] += vr;
+      M[q + 1] += vi;
     }
     scale[j] = Math.sqrt(amax);
-  }
-}
-
-/** Adds a child's packed update matrix into the parent's panel (rows/columns among its pivots) and update matrix. */
-function extendAdd(
-  stack: Float64Array, src: number, rowIdx: Int32Array, rs: number, mc: number, map: Int32Array,
-  rel: Int32Array, P: Float64Array, off: number, ns: number, cOff: number,
-): void {
-  let q = 0; // child rows that land among the parent's pivot columns come first (rows are sorted)
-  for (let a = 0; a < mc; a++) {
-    rel[a] = map[rowIdx[rs + a]];
-    if (rel[a] < ns) q++;
-  }
-  for (let a = 0; a < mc; a++) {
-    const pa = rel[a];
-    const pRow = off + 2 * pa * ns;
-    const lim = a < q ? a + 1 : q;
-    for (let b = 0; b < lim; b++) {
-      const d = pRow + 2 * rel[b];
-      P[d] += stack[src];
-      P[d + 1] += stack[src + 1];
-      src += 2;
-    }
-    if (a < q) continue;
-    const cRow = cOff + (pa - ns) * (pa - ns + 1) - 2 * ns;
-    for (let b = q; b <= a; b++) {
-      const d = cRow + 2 * rel[b];
-      stack[d] += stack[src];
-      stack[d + 1] += stack[src + 1];
-      src += 2;
-    }
   }
 }
 
