@@ -265,7 +265,7 @@ function extendAdd(): K {
 
 let compiled: { plain: WasmModule; shared: WasmModule } | null | undefined;
 
-function build(shared: boolean): Uint8Array {
+function build(shared: boolean): Uint8Array<ArrayBuffer> {
   const fns: ExportedFunction[] = [
     { name: 'products', code: products() }, { name: 'lowerProducts', code: lowerProducts() }, { name: 'packScaled', code: packScaled() },
     { name: 'solveRows', code: solveRows() }, { name: 'extendAdd', code: extendAdd() },
@@ -304,6 +304,6 @@ export function simdKernels(memory: WasmMemory): DenseKernels {
 }
 
 /** The module's bytes (for tests and for hosts that compile it themselves). */
-export function simdModuleBytes(shared = false): Uint8Array {
+export function simdModuleBytes(shared = false): Uint8Array<ArrayBuffer> {
   return build(shared);
 }

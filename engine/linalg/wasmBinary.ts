@@ -108,7 +108,7 @@ export interface ExportedFunction { name: string; code: Code }
  * declares a maximum, and the memory given must not exceed it) and exporting the given functions, which may call each other by their index in
  * the list. No results: every kernel writes to memory.
  */
-export function moduleBytes(functions: ExportedFunction[], memory: { minPages: number; maxPages: number; shared: boolean }): Uint8Array {
+export function moduleBytes(functions: ExportedFunction[], memory: { minPages: number; maxPages: number; shared: boolean }): Uint8Array<ArrayBuffer> {
   const out = [0x00, 0x61, 0x73, 0x6d, 0x01, 0x00, 0x00, 0x00];
   const types: number[][] = functions.map(({ code }) => [0x60, code.params.length, ...code.params, 0x00]);
   const typeSec: number[] = [];
