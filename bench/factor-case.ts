@@ -2,7 +2,8 @@
  * One factorisation case in a process of its own (so that its memory peak is its own):
  *   node --expose-gc --import tsx bench/factor-case.ts NAME OUTDIR
  * prepares the case, times assembly, analysis, factorisation and one solve, measures the resident-set
- * peak of the factorisation alone, writes A.mtx and b.mtx into OUTDIR and prints one JSON line.
+ * peak of the factorisation alone, writes A.mtx, b.mtx and our ordering perm.txt (for MUMPS) into OUTDIR
+ * and prints one JSON line.
  */
 import { createWriteStream, writeFileSync } from 'node:fs';
 import { once } from 'node:events';
@@ -49,9 +50,11 @@ for (const chunk of matrixMarketChunks(A)) if (!mtx.write(chunk)) await once(mtx
 mtx.end();
 await once(mtx, 'finish');
 writeFileSync(join(outDir, 'b.mtx'), writeMatrixMarketVector(b));
+// our ordering for MUMPS (ICNTL(7) = 1): line k holds the 1-based pivot position of unknown k
+writeFileSync(join(outDir, 'perm.txt'), `${Array.from(S.pinv, (p) => p + 1).join('\n')}\n`);
 
 console.log(JSON.stringify({
   name: c.name, order: c.order, topHz: c.topHz, chamberLength: c.chamberLength, dofs: S.n, nnzA: S.nnzA, nnzL: S.nnzL, storedEntries: S.storedEntries,
-  flops: S.flops, frontFlops: S.frontFlops, memoryBytes: S.memoryBytes, peakBytes: peak, peakReset: reset,
+  flops: S.flops, frontFlops: S.frontFlops, maxFront: S.maxFront, kernel: N.kernel, memoryBytes: S.memoryBytes, peakBytes: peak, peakReset: reset,
   analyseSeconds, assembleSeconds, factorSeconds, factorCpuSeconds, solveSeconds, residual, perturbed: N.perturbed,
 }));

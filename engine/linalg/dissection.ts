@@ -22,6 +22,10 @@ export interface DissectionOptions {
   leafSize?: number;
   /** How a leaf box is ordered: minimum degree on its element-coupling graph, or lattice order. Default minimumDegree. */
   leaf?: 'minimumDegree' | 'lattice';
+  /** How the separating plane is chosen: the dof median of the longest axis, or the plane of least separator size per balance on any axis. */
+  cut?: 'median' | 'ratio';
+  /** Exponent of the balance term of the 'ratio' rule (sep / (left·right)^balance). */
+  balance?: number;
 }
 
 /** Box of lattice indices, inclusive: lo[a] ≤ index ≤ hi[a] on axis a. */
@@ -35,6 +39,9 @@ interface Dissector {
   local: Int32Array; // ndofs: dof → index inside the current leaf, −1 otherwise
   leafSize: number;
   leaf: 'minimumDegree' | 'lattice';
+  cut: 'median' | 'ratio';
+  balance: number;
+  hist3: [Int32Array, Int32Array, Int32Array]; // dofs per plane along each axis
 }
 
 /** perm[newIndex] = dof: halves first, then their separator, recursively. */
@@ -44,6 +51,7 @@ export function latticeDissection(lat: NodeLattice, ndofs: number, opts: Dissect
   const d: Dissector = {
     lat, perm: new Int32Array(ndofs), count: 0, hist: new Int32Array(Math.max(nx, ny, nz)),
     local: new Int32Array(ndofs).fill(-1), leafSize: opts.leafSize ?? 32, leaf: opts.leaf ?? 'minimumDegree',
+    cut: opts.cut ?? 'median', balance: opts.balance ?? 1, hist3: [new Int32Array(nx), new Int32Array(ny), new Int32Array(nz)],
   };
   dissect(d, [0, 0, 0, nx - 1, ny - 1, nz - 1]);
   if (d.count !== ndofs) throw new Error(`latticeDissection: ordered ${d.count} of ${ndofs} dofs`);
@@ -89,6 +97,7 @@ function dissect(d: Dissector, box: Box): void {
  * inside the box; null for a leaf (few dofs or no such plane).
  */
 function chooseCut(d: Dissector, box: Box): [number, number] | null {
+  if (d.cut === 'ratio') return ratioCut(d, box);
   const step = d.lat.step;
   const axes = [0, 1, 2].sort((a, b) => box[b + 3] - box[b] - (box[a + 3] - box[a]));
   let total = -1;
@@ -114,6 +123,52 @@ function chooseCut(d: Dissector, box: Box): [number, number] | null {
     return [a, plane];
   }
   return null;
+}
+
+/** The element-boundary plane, on any axis, with the least separator size per balance, sep / (left·right)^balance; null for a leaf. */
+function ratioCut(d: Dissector, box: Box): [number, number] | null {
+  const step = d.lat.step;
+  const total = histograms(d, box);
+  if (total <= d.leafSize) return null;
+  let best: [number, number] | null = null, bestCost = Infinity;
+  for (let a = 0; a < 3; a++) {
+    const lo = box[a], hi = box[a + 3], h = d.hist3[a];
+    const pmin = (Math.floor(lo / step) + 1) * step, pmax = (Math.ceil(hi / step) - 1) * step;
+    let left = 0;
+    for (let i = lo; i < pmin; i++) left += h[i];
+    for (let plane = pmin; plane <= pmax; plane += step) {
+      const sep = h[plane], right = total - left - sep;
+      if (left > 0 && right > 0) {
+        const cost = sep / Math.pow(left * right, d.balance);
+        if (cost < bestCost) { bestCost = cost; best = [a, plane]; }
+      }
+      for (let i = plane; i < plane + step && i <= hi; i++) left += h[i];
+    }
+  }
+  return best;
+}
+
+/** hist3[a][i] = dofs of the box in plane i along axis a, for the three axes; returns their total. */
+function histograms(d: Dissector, box: Box): number {
+  const { dims, dofOf } = d.lat;
+  const [hx, hy, hz] = d.hist3;
+  hx.fill(0, box[0], box[3] + 1);
+  hy.fill(0, box[1], box[4] + 1);
+  hz.fill(0, box[2], box[5] + 1);
+  let total = 0;
+  for (let k = box[2]; k <= box[5]; k++) {
+    for (let j = box[1]; j <= box[4]; j++) {
+      const row = dims[0] * (j + dims[1] * k);
+      for (let i = box[0]; i <= box[3]; i++) {
+        if (dofOf[row + i] === -1) continue;
+        hx[i]++;
+        hy[j]++;
+        hz[k]++;
+        total++;
+      }
+    }
+  }
+  return total;
 }
 
 /** hist[i] = dofs of the box in plane i along axis a; returns their total. */

@@ -11,23 +11,20 @@
  */
 import type { ComplexCsr } from './sparse.ts';
 import type { Symbolic } from './symbolic.ts';
-import { factorFront, type FrontDiagonal, type PivotPolicy } from './frontal.ts';
+import type { FrontDiagonal } from './frontal.ts';
 import { createArena, defaultKernel, type FrontArena } from './frontArena.ts';
 import type { KernelKind } from './denseKernels.ts';
-import { NonFiniteMatrixError, SingularSystemError } from './errors.ts';
+import { SingularSystemError } from './errors.ts';
+import { ParallelState, type HelperThreads } from './parallelFactor.ts';
+import { factorFronts, PivotGuard, type PivotRecord } from './fronts.ts';
+
+export type { PivotRecord } from './fronts.ts';
 
 export interface FactorOptions {
   /** |d_j| below pivotTolerance · max_k |A_jk| counts as zero and is perturbed. Default 1e-12. */
   pivotTolerance?: number;
   /** More perturbed pivots than this throw SingularSystemError. Default max(8, n/1000). */
   maxPerturbed?: number;
-}
-
-export interface PivotRecord {
-  permuted: number;
-  original: number;
-  magnitude: number; // |d| as computed, before any perturbation
-  scale: number; // max |A_jk| of its original row
 }
 
 export interface Numeric {
@@ -47,12 +44,14 @@ export const DEFAULT_PIVOT_TOLERANCE = 1e-12;
 const INDEX_LIMIT = 0x7fffffff;
 
 interface FactorArrays {
-  panels: Float64Array; map: Int32Array; scale: Float64Array; diagonal: FrontDiagonal; arena: FrontArena;
+  panels: Float64Array; map: Int32Array; scale: Float64Array; diagonal: FrontDiagonal; arena: FrontArena; parallel: ParallelState | null;
 }
 
 export interface WorkspaceOptions {
   /** The dense kernels: 'simd' (WebAssembly, the default where the runtime has it) or 'js'. */
   kernel?: KernelKind;
+  /** Helper threads that factor subtrees alongside the caller (parallelFactor.ts); none by default. */
+  threads?: HelperThreads;
 }
 
 /**
@@ -64,28 +63,39 @@ export interface WorkspaceOptions {
 export class FactorWorkspace {
   generation = 0;
   readonly kernel: KernelKind;
+  private readonly threads: HelperThreads | null;
   private arrays: FactorArrays | null = null;
 
   constructor(readonly symbolic: Symbolic, opts: WorkspaceOptions = {}) {
     this.kernel = opts.kernel ?? defaultKernel();
+    this.threads = opts.threads && opts.threads.size > 0 ? opts.threads : null;
   }
 
-  /** The arrays for one more factorisation (allocated once): what an earlier Numeric in it held is invalid from now on. */
-  next(): FactorArrays {
+  /** The arrays for one more factorisation of A's pattern (allocated once): what an earlier Numeric in it held is invalid from now on. */
+  next(A: ComplexCsr): FactorArrays {
     this.generation++;
-    return (this.arrays ??= allocate(this.symbolic, this.kernel));
+    return (this.arrays ??= allocate(this.symbolic, A, this.kernel, this.threads));
+  }
+
+  /** Ends the helper threads, if any (a workspace without threads needs no closing). */
+  close(): void {
+    this.arrays?.parallel?.close();
   }
 }
 
-function allocate(S: Symbolic, kernel: KernelKind): FactorArrays {
+function allocate(S: Symbolic, A: ComplexCsr, kernel: KernelKind, threads: HelperThreads | null): FactorArrays {
   if (2 * S.storedEntries > 2 ** 53 || 2 * S.maxFront * S.maxFront > INDEX_LIMIT) {
     throw new RangeError(`factor: fronts of order ${S.maxFront} (${S.storedEntries} factor entries) are too large for this solver`);
   }
-  const n = S.n;
+  const n = S.n, arena = createArena(S.arena, kernel), map = new Int32Array(n);
+  if (threads) {
+    const p = new ParallelState(S, A, threads, kernel);
+    return { panels: p.panels, map, scale: p.scale, diagonal: p.diagonal, arena, parallel: p };
+  }
   return {
-    panels: new Float64Array(2 * S.storedEntries), map: new Int32Array(n), scale: new Float64Array(n),
+    panels: new Float64Array(2 * S.storedEntries), map, scale: new Float64Array(n),
     diagonal: { dRe: new Float64Array(n), dIm: new Float64Array(n), invRe: new Float64Array(n), invIm: new Float64Array(n) },
-    arena: createArena(S.arena, kernel),
+    arena, parallel: null,
   };
 }
 
@@ -94,39 +104,24 @@ export function factor(A: ComplexCsr, S: Symbolic, opts: FactorOptions = {}, wor
   checkPattern(A, S);
   if (workspace.symbolic !== S) throw new RangeError('factor: the workspace was made for another analysis');
   const n = S.n;
-  const { panels, map, scale, diagonal, arena } = workspace.next();
-  const guard = new PivotGuard(S, scale, opts.pivotTolerance ?? DEFAULT_PIVOT_TOLERANCE, opts.maxPerturbed ?? Math.max(8, Math.floor(n / 1000)));
-  const { superStart, rowPtr, rowIdx, childPtr, child, panelPtr } = S;
-  const M = arena.f64, I = arena.i32, L = arena.layout, K = arena.kernels, fo = L.front;
-  let top = 0; // doubles in use on the stack
-  for (let s = 0; s < S.nSuper; s++) {
-    const first = superStart[s], ns = superStart[s + 1] - first;
-    const r0 = rowPtr[s], m = rowPtr[s + 1] - r0, F = ns + m, fs = 2 * F;
-    for (let t = 0; t < ns; t++) map[first + t] = t;
-    for (let t = 0; t < m; t++) map[rowIdx[r0 + t]] = ns + t;
-    // the lower triangle, the pivot block whole and one more column below it: every entry the kernels write, so no value outlives its front
-    for (let i = 0; i < F; i++) M.fill(0, fo + i * fs, fo + i * fs + 2 * Math.min(F, i < ns ? ns : i + 2));
-    assembleColumns(A, S, first, ns, map, M, fo, fs, scale);
-    let base = top;
-    for (let c = childPtr[s]; c < childPtr[s + 1]; c++) {
-      const mc = rowPtr[child[c] + 1] - rowPtr[child[c]];
-      base -= mc * (mc + 1);
+  const { panels, map, scale, diagonal, arena, parallel } = workspace.next(A);
+  const tolerance = opts.pivotTolerance ?? DEFAULT_PIVOT_TOLERANCE, limit = opts.maxPerturbed ?? Math.max(8, Math.floor(n / 1000));
+  const guard = new PivotGuard(S.perm, scale, tolerance, limit);
+  if (parallel) {
+    const job = { A, S, panels, map, scale, diagonal, arena, guard, handoff: parallel.handoff };
+    parallel.start(A, tolerance, limit);
+    let mine: unknown = null;
+    try {
+      factorFronts(job, parallel.plan.lists[0], 0, parallel.plan.lists[0].length);
+    } catch (e) {
+      mine = e;
     }
-    let src = base;
-    for (let c = childPtr[s]; c < childPtr[s + 1]; c++) {
-      const ch = child[c], rs = rowPtr[ch], mc = rowPtr[ch + 1] - rs;
-      for (let a = 0; a < mc; a++) I[L.rel + a] = map[rowIdx[rs + a]];
-      K.extendAdd(L.stack + src, L.rel, mc, fo, fs);
-      src += mc * (mc + 1);
-    }
-    factorFront(arena, F, ns, first, diagonal, guard);
-    const off = 2 * panelPtr[s];
-    for (let i = 0; i < F; i++) panels.set(M.subarray(fo + i * fs, fo + i * fs + 2 * Math.min(i + 1, ns)), off + 2 * i * ns);
-    for (let a = 0; a < m; a++) {
-      const from = fo + (ns + a) * fs + 2 * ns;
-      M.copyWithin(L.stack + base + a * (a + 1), from, from + 2 * (a + 1));
-    }
-    top = base + m * (m + 1);
+    parallel.join(guard); // always: the helpers must be idle before the workspace is used again
+    if (mine) throw mine;
+    if (guard.count > limit) throw new SingularSystemError({ permuted: guard.minAt, original: S.perm[guard.minAt] }, guard.minMagnitude, scale[guard.minAt], `${guard.count} pivots fell below ${tolerance} of their row's largest entry`);
+    factorFronts(job, parallel.plan.top, 0, parallel.plan.top.length);
+  } else {
+    factorFronts({ A, S, panels, map, scale, diagonal, arena, guard, handoff: null }, null, 0, S.nSuper);
   }
   return { symbolic: S, matrix: A, panels, diagonal, perturbed: guard.count, smallestPivot: guard.smallest(), workspace, generation: workspace.generation, kernel: arena.kernels.kind };
 }
@@ -137,70 +132,3 @@ function checkPattern(A: ComplexCsr, S: Symbolic): void {
   }
 }
 
-/** Scatters the lower part (in the factor's order) of A's rows for the front's pivot columns into the front (row stride fs); records row scales. */
-function assembleColumns(A: ComplexCsr, S: Symbolic, first: number, ns: number, map: Int32Array, M: Float64Array, fo: number, fs: number, scale: Float64Array): void {
-  const { rowPtr, colIdx, re, im } = A;
-  const { perm, pinv } = S;
-  for (let jl = 0; jl < ns; jl++) {
-    const j = first + jl, row = perm[j];
-    let amax = 0;
-    for (let k = rowPtr[row]; k < rowPtr[row + 1]; k++) {
-      const vr = re[k], vi = im[k];
-      if (vr - vr !== 0 || vi - vi !== 0) throw new NonFiniteMatrixError(row, colIdx[k]);
-      const mag2 = vr * vr + vi * vi;
-      if (mag2 > amax) amax = mag2;
-      const i = pinv[colIdx[k]];
-      if (i < j) continue;
-      const q = fo + map[i] * fs + 2 * jl;
-      M[q] += vr;
-      M[q + 1] += vi;
-    }
-    scale[j] = Math.sqrt(amax);
-  }
-}
-
-/** Pivot guard: zero or non-finite pivots throw; tiny ones are perturbed (keeping their phase) and counted. */
-class PivotGuard implements PivotPolicy {
-  count = 0;
-  private minRatio = Infinity; // smallest |d| / scale seen
-  private minAt = -1;
-  private minMagnitude = 0;
-
-  constructor(
-    private readonly S: Symbolic,
-    private readonly scale: Float64Array,
-    private readonly tolerance: number,
-    private readonly limit: number,
-  ) {}
-
-  accept(j: number, dr: number, di: number, out: Float64Array): void {
-    const mag = Math.sqrt(dr * dr + di * di);
-    const scale = this.scale[j];
-    if (!(mag > 0) || mag === Infinity) throw new SingularSystemError(this.where(j), mag, scale);
-    if (mag / scale < this.minRatio) {
-      this.minRatio = mag / scale;
-      this.minAt = j;
-      this.minMagnitude = mag;
-    }
-    const floor = this.tolerance * scale;
-    if (mag < floor) {
-      this.count++;
-      if (this.count > this.limit) {
-        throw new SingularSystemError(this.where(j), mag, scale, `${this.count} pivots fell below ${this.tolerance} of their row's largest entry`);
-      }
-      dr *= floor / mag;
-      di *= floor / mag;
-    }
-    out[0] = dr;
-    out[1] = di;
-  }
-
-  smallest(): PivotRecord | null {
-    if (this.minAt === -1) return null;
-    return { ...this.where(this.minAt), magnitude: this.minMagnitude, scale: this.scale[this.minAt] };
-  }
-
-  private where(j: number): { permuted: number; original: number } {
-    return { permuted: j, original: this.S.perm[j] };
-  }
-}
