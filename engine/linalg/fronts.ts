@@ -72,11 +72,15 @@ export function factorFronts(job: FrontJob, list: Int32Array | null, from: numbe
     }
     factorFront(arena, F, ns, first, diagonal, guard);
     const off = 2 * panelPtr[s];
-    for (let i = 0; i < F; i++) panels.set(M.subarray(fo + i * fs, fo + i * fs + 2 * Math.min(i + 1, ns)), off + 2 * i * ns);
+    // entry by entry: a subarray per row costs more than its copy (most rows are short)
+    for (let i = 0; i < F; i++) {
+      const r = fo + i * fs, d = off + 2 * i * ns, len = 2 * Math.min(i + 1, ns);
+      for (let q = 0; q < len; q++) panels[d + q] = M[r + q];
+    }
     for (let a = 0; a < m; a++) {
       const from = fo + (ns + a) * fs + 2 * ns;
-      if (away(s)) handoff!.buf.set(M.subarray(from, from + 2 * (a + 1)), handoff!.at[s] + a * (a + 1));
-      else M.copyWithin(L.stack + base + a * (a + 1), from, from + 2 * (a + 1));
+      const dest = away(s) ? handoff!.buf : M, to = away(s) ? handoff!.at[s] + a * (a + 1) : L.stack + base + a * (a + 1);
+      for (let q = 0; q < 2 * (a + 1); q++) dest[to + q] = M[from + q];
     }
     top = away(s) ? base : base + m * (m + 1);
   }

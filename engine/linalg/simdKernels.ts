@@ -54,8 +54,12 @@ class K extends Code {
   }
 }
 
-/** Micro kernel: R rows × C columns of T −= X·Wᵀ over len; params (bytes) tb, ts, xb, xs, wb, ws, len. */
-function micro(R: number, C: number): K {
+/**
+ * Micro kernel: R rows × C columns of T −= X·Wᵀ over len; params (bytes) tb, ts, xb, xs, wb, ws, len.
+ * order 'x': each x is loaded once a step and the w it meets are loaded again for every row (fewer live
+ * registers: 2RC accumulators, one x, one w); order 'w': the R x of a step stay in registers. unroll: steps a loop turn.
+ */
+export function micro(R: number, C: number, order: 'x' | 'w' = 'x', unroll = 2): K {
   const k = new K([i32, i32, i32, i32, i32, i32, i32]);
   const [tb, ts, xb, xs, wb, ws, len] = [0, 1, 2, 3, 4, 5, 6];
   const px = Array.from({ length: R }, () => k.local(i32));
@@ -68,6 +72,16 @@ function micro(R: number, C: number): K {
   for (let r = 0; r < R; r++) { k.get(r ? px[r - 1] : xb); if (r) k.get(xs).add(); k.set(px[r]); }
   for (let c = 0; c < C; c++) { k.get(c ? pw[c - 1] : wb); if (c) k.get(ws).add(); k.set(pw[c]); }
   const step = (s: number): void => {
+    if (order === 'x') {
+      for (let r = 0; r < R; r++) {
+        k.get(px[r]).v128load(16 * s).set(xv[0]);
+        for (let c = 0; c < C; c++) {
+          k.get(a[r][c]).get(xv[0]).get(pw[c]).v128load(32 * s).fmul().fadd().set(a[r][c]);
+          k.get(b[r][c]).get(xv[0]).get(pw[c]).v128load(32 * s + 16).fmul().fadd().set(b[r][c]);
+        }
+      }
+      return;
+    }
     for (let r = 0; r < R; r++) k.get(px[r]).v128load(16 * s).set(xv[r]);
     for (let c = 0; c < C; c++) {
       for (const [acc, off] of [[a, 0], [b, 16]] as const) {
@@ -76,18 +90,24 @@ function micro(R: number, C: number): K {
       }
     }
   };
-  k.get(len).i32c(1).op(I32_SHR_U).set(n2);
+  const shift = Math.log2(unroll);
+  k.get(len).i32c(shift).op(I32_SHR_U).set(n2);
+  k.begin(0x02).get(n2).op(I32_EQZ).brIf(0);
+  k.begin(0x03);
+  for (let u = 0; u < unroll; u++) step(u);
+  for (const p of px) k.inc(p, 16 * unroll);
+  for (const p of pw) k.inc(p, 32 * unroll);
+  k.get(n2).i32c(1).op(I32_SUB).tee(n2).brIf(0);
+  k.end().end();
+  // the len mod unroll steps left
+  k.get(len).i32c(unroll - 1).op(I32_AND).set(n2);
   k.begin(0x02).get(n2).op(I32_EQZ).brIf(0);
   k.begin(0x03);
   step(0);
-  step(1);
-  for (const p of px) k.inc(p, 32);
-  for (const p of pw) k.inc(p, 64);
+  for (const p of px) k.inc(p, 16);
+  for (const p of pw) k.inc(p, 32);
   k.get(n2).i32c(1).op(I32_SUB).tee(n2).brIf(0);
   k.end().end();
-  k.get(len).i32c(1).op(I32_AND).begin(0x04);
-  step(0);
-  k.end();
   for (let r = 0; r < R; r++) {
     k.get(r ? ta : tb);
     if (r) k.get(ts).add();
