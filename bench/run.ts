@@ -1,17 +1,21 @@
 /**
  * npm run bench — speed and scale of one machine, measured side by side in one run, written to
  * bench/RESULTS.md (and printed):
- *   1. factorisation of assembled 3D duct systems at three sizes and orders: ours against SciPy's SuperLU
- *      (and Octave's backslash) on the same matrix exported as Matrix Market;
+ *   0. the dense kernel's GFlop/s (SIMD and plain JS) and the machine's peak for the same operation (OpenBLAS zgemm, one thread);
+ *   1. factorisation of assembled 3D duct systems at four sizes and orders: ours against MUMPS (sequential, each of its
+ *      orderings and ours), SciPy's SuperLU and Octave's backslash on the same matrix exported as Matrix Market;
+ *      flop and fill ratios against MUMPS's analysis; one against two threads in one factorisation;
  *   2. assembly time as a fraction of factor time;
  *   3. the symbolic memory estimate against the measured peak of the factorisation (one child process per size);
  *   4. a 24-frequency sweep with 1 and 2 workers through the command line;
  *   5. start-up: the smallest demo scenario end to end;
  *   6. the longest elongated duct whose solve fits in 8 GiB: found by the estimate, then solved and its peak measured.
  * Options: --only=small,medium (factor cases), --skip=factor,sweep,startup,largest,reference (factor: sections 1–3), --scipy-timeout=SECONDS (per ordering, default 1800),
- * --sweep-rounds=N (alternating 1- and 2-worker runs of the sweep, default 3).
- * External references are used when present and never installed here: SciPy from Debian
- * (apt-get install -y python3-scipy, run as /usr/bin/python3), Octave (apt-get install -y octave).
+ * --sweep-rounds=N (alternating 1- and 2-worker runs of the sweep, default 3), --out=FILE (default bench/RESULTS.md: a partial run
+ * with --only or --skip should write elsewhere).
+ * External references are used when present and never installed here: MUMPS from Debian (apt-get install -y
+ * libmumps-seq-dev gfortran; bench/mumps.ts builds the driver), SciPy (apt-get install -y python3-scipy, run as
+ * /usr/bin/python3), Octave (apt-get install -y octave).
  * Timings are printed and recorded, never asserted.
  */
 import { execFileSync, spawnSync } from 'node:child_process';
@@ -22,6 +26,7 @@ import { fileURLToPath } from 'node:url';
 import { readScenario } from '../engine/scenario/index.ts';
 import { prepareScenario } from '../engine/solve/scenario.ts';
 import { chamberScenario, FACTOR_CASES, type DuctCase } from './scenarios.ts';
+import { buildMumps, runMumps, mumpsTotal, mumpsCpu, MUMPS_ORDERINGS, REAL_FLOPS_PER_MUMPS_FLOP, type MumpsRun } from './mumps.ts';
 
 const root = fileURLToPath(new URL('..', import.meta.url));
 /** This process's resident set before any case: Node, tsx and the engine's modules, what every child process also carries. */
@@ -65,6 +70,7 @@ function octaveVersion(): string | null {
 interface Ours {
   name: string; order: number; topHz: number; chamberLength: number; dofs: number; nnzA: number; nnzL: number; storedEntries: number; flops: number;
   memoryBytes: number; peakBytes: number; peakReset: boolean; analyseSeconds: number; assembleSeconds: number; factorSeconds: number; factorCpuSeconds: number; solveSeconds: number; residual: number;
+  maxFront: number; kernel: string; keptOneThreadSeconds: number; keptTwoThreadsSeconds: number; firstTwoThreadsSeconds: number; planSpeedup: number;
 }
 interface Splu { ordering: string; factorSeconds: number; factorCpuSeconds: number; solveSeconds: number; nnzL: number; nnzU: number; residual: number }
 interface OctaveRun { seconds: number; residual: number }
@@ -120,7 +126,55 @@ printf('%.6f %.6e\\n', t, norm(A*x - b) / norm(b));
 }
 
 // ---- 1–3: factorisation, assembly, memory ----
+type CaseResult = { c: DuctCase; ours: Ours; mumps: MumpsRun[]; mumpsFailed: string[] };
+const ourTotal = (o: Ours) => o.analyseSeconds + o.factorSeconds + o.solveSeconds;
+
+/** MUMPS's best = its fastest ordering (analysis + factor + solve); flops are compared in MUMPS's own count, ours through its run on our ordering ('given'). */
+function mumpsSection(rs: CaseResult[]): void {
+  const have = rs.filter((r) => r.mumps.some((m) => m.ordering !== 'given'));
+  if (have.length === 0) {
+    if (rs.some((r) => r.mumpsFailed.length > 0)) for (const r of rs) for (const f of r.mumpsFailed) say(`- ${f}`);
+    say(`MUMPS is absent: ${'missing' in mumpsDriver ? mumpsDriver.missing : 'no run finished'}.`);
+    say();
+    return;
+  }
+  say('### Against MUMPS (sequential, same matrix, OpenBLAS on one thread)');
+  say();
+  say(`Each of MUMPS's orderings present (ICNTL(7): ${MUMPS_ORDERINGS.join(', ')}) and ours handed to it ("given", ICNTL(7) = 1), bench/mumps/mumps_solve.c: analysis, factorisation and solve timed inside the driver, reading excluded. Flops are MUMPS's RINFOG(3) (one per complex operation; ×${REAL_FLOPS_PER_MUMPS_FLOP} for real flops), entries INFOG(29), largest front INFOG(11). "flop ratio" = MUMPS's flops on our ordering / on its least-flop ordering, both counted by MUMPS.`);
+  say();
+  const rows: string[][] = [];
+  for (const r of have) {
+    for (const m of r.mumps) rows.push([r.c.name, m.ordering, fmt(m.analysisSeconds), fmt(m.factorSeconds), fmt(m.solveSeconds, 3), fmt(mumpsTotal(m)), fmt(mumpsCpu(m)), String(m.factorEntries), fmt((REAL_FLOPS_PER_MUMPS_FLOP * m.flops) / 1e9, 1), String(m.maxFront), String(m.memoryMB), m.residual.toExponential(1)]);
+    const o = r.ours;
+    rows.push([r.c.name, `**ours** (${o.kernel})`, fmt(o.analyseSeconds), fmt(o.factorSeconds), fmt(o.solveSeconds, 3), fmt(ourTotal(o)), '—', `${o.storedEntries} (nnz(L) ${o.nnzL})`, fmt(o.flops / 1e9, 1), String(o.maxFront), mb(o.memoryBytes), o.residual.toExponential(1)]);
+  }
+  table(['case', 'ordering', 'analysis s', 'factor s', 'solve s', 'total s', 'total CPU s', 'factor entries', 'GFlop (real)', 'largest front', 'memory MB', 'residual'], rows);
+  const summary: string[][] = [];
+  for (const r of have) {
+    const theirs = r.mumps.filter((m) => m.ordering !== 'given'), given = r.mumps.find((m) => m.ordering === 'given');
+    const best = theirs.reduce((a, m) => (mumpsTotal(m) < mumpsTotal(a) ? m : a)), lean = theirs.reduce((a, m) => (m.flops < a.flops ? m : a));
+    const tr = ourTotal(r.ours) / mumpsTotal(best), fr = given ? given.flops / lean.flops : NaN;
+    summary.push([r.c.name, String(r.ours.dofs), best.ordering, fmt(tr), tr <= 0.8 ? 'met' : 'NOT met', lean.ordering, fmt(fr), Number.isFinite(fr) ? (fr <= 1.05 ? 'met' : 'NOT met') : '—',
+      given ? fmt(given.factorEntries / lean.factorEntries) : '—', `${r.ours.maxFront} / ${lean.maxFront}`, fmt(r.ours.flops / 1e9 / r.ours.factorSeconds)]);
+  }
+  say('Targets: our analyse + factor + solve ≤ 0.8 × MUMPS\'s best ordering\'s analysis + factor + solve (wall time); flops of our ordering ≤ 1.05 × MUMPS\'s least-flop ordering (MUMPS\'s count); the factorisation ≥ 10 GFlop/s effective (our exact flop count / factor wall time).');
+  say();
+  table(['case', 'dofs', 'MUMPS best', 'time ours / MUMPS', 'target ≤ 0.8', 'least-flop ordering', 'flop ratio', 'target ≤ 1.05', 'entry ratio', 'largest front ours / MUMPS', 'factor GFlop/s', ], summary.map((row) => [...row.slice(0, 10), `${row[10]} (target ≥ 10: ${Number(row[10]) >= 10 ? 'met' : 'NOT met'})`]));
+  for (const r of rs) for (const f of r.mumpsFailed) say(`- ${f}`);
+  if (rs.some((r) => r.mumpsFailed.length > 0)) say();
+}
+
+/** One factorisation on one and on two threads, kept workspaces (the second factorisation in each). */
+function threadSection(rs: CaseResult[]): void {
+  say('### Two threads in one factorisation');
+  say();
+  say('The factorisation again in a kept workspace (memory already touched), alternately on one thread and on two (the caller and one helper thread, subtrees of the assembly tree shared out, parallelFactor.ts), best of two each; "first" is the first two-thread factorisation of a fresh workspace, the helper thread\'s start included; "plan" is the speed-up the work split predicts (flops of the fuller thread plus the fronts above the split).');
+  say();
+  table(['case', 'dofs', '1 thread s', '2 threads s', 'speed-up', 'target ≥ 1.6', '2 threads first s', 'plan'],
+    rs.map(({ c, ours: o }) => { const sp = o.keptOneThreadSeconds / o.keptTwoThreadsSeconds; return [c.name, String(o.dofs), fmt(o.keptOneThreadSeconds), fmt(o.keptTwoThreadsSeconds), fmt(sp), sp >= 1.6 ? 'met' : 'NOT met', fmt(o.firstTwoThreadsSeconds), fmt(o.planSpeedup)]; }));
+}
 const scipy = skip.has('reference') ? null : scipyVersion(), octave = skip.has('reference') ? null : octaveVersion();
+const mumpsDriver = skip.has('reference') ? { missing: 'skipped (--skip=reference)' } : buildMumps('seq');
 const cases = skip.has('factor') ? [] : FACTOR_CASES.filter((c) => only.length === 0 || only.includes(c.name));
 say('# quietgrid bench results');
 say();
@@ -129,9 +183,27 @@ say();
 for (const l of machine()) say(l);
 say(`- SciPy: ${scipy ? `${scipy} (Debian python3-scipy, /usr/bin/python3)` : 'absent — install with `apt-get install -y python3-scipy` to get the SciPy columns'}`);
 say(`- Octave: ${octave ?? 'absent — install with `apt-get install -y octave` to get the Octave column'}`);
+say(`- MUMPS: ${'path' in mumpsDriver ? 'Debian libmumps-seq 5.5 (bench/mumps/mumps_solve.c built with gcc; OpenBLAS on one thread)' : `absent: ${mumpsDriver.missing}`}`);
 say();
 
-const results: { c: DuctCase; ours: Ours; splu: Splu[]; oct: OctaveRun | null; mmdTimedOut: number | null }[] = [];
+// ---- 0: kernel and peak ----
+if (!skip.has('factor')) {
+  const r = spawnSync(process.execPath, ['--import', 'tsx', join(root, 'bench/kernel.ts')], { cwd: root, encoding: 'utf8' });
+  if (r.status === 0) {
+    const k = JSON.parse(r.stdout.trim().split('\n').pop()!) as { simd: number | null; js: number; zgemm: number | null; shapes: number[][] };
+    say('## 0. The dense kernel and the machine\'s peak');
+    say();
+    say(`The frontal update T −= X·Wᵀ alone (\`subtractProducts\`, bench/kernel.ts), complex, 8 real flops a multiply-add, best of several runs on ${k.shapes.map((x) => x.join(' × ')).join(' and ')} (rows × columns × terms); the peak is OpenBLAS zgemm on 1000 × 1000 matrices through NumPy, one thread, measured in the same run.`);
+    say();
+    table(['kernel', 'GFlop/s', 'of zgemm', 'target'], [
+      ['WebAssembly SIMD (f64x2)', fmt(k.simd ?? NaN), k.zgemm && k.simd ? `${fmt((100 * k.simd) / k.zgemm, 0)} %` : '—', k.simd === null ? 'no SIMD here' : `≥ 15: ${k.simd >= 15 ? 'met' : 'NOT met'}`],
+      ['plain JavaScript', fmt(k.js), k.zgemm ? `${fmt((100 * k.js) / k.zgemm, 0)} %` : '—', ''],
+      ['OpenBLAS zgemm (peak)', fmt(k.zgemm ?? NaN), k.zgemm ? '100 %' : 'NumPy absent', ''],
+    ]);
+  }
+}
+
+const results: { c: DuctCase; ours: Ours; splu: Splu[]; oct: OctaveRun | null; mmdTimedOut: number | null; mumps: MumpsRun[]; mumpsFailed: string[] }[] = [];
 const stopped: string[] = [];
 for (const c of cases) {
   const dir = mkdtempSync(join(tmpdir(), `quietgrid-bench-${c.name}-`));
@@ -146,7 +218,17 @@ for (const c of cases) {
     }
     for (const s of splu) console.error(`  SciPy ${s.ordering}: factor ${fmt(s.factorSeconds)} s`);
     const oct = octave ? runOctave(dir) : null;
-    results.push({ c, ours, splu, oct, mmdTimedOut: stops.find((s) => s.ordering === 'MMD_AT_PLUS_A' && !s.why)?.stoppedAfter ?? null });
+    const mumps: MumpsRun[] = [], mumpsFailed: string[] = [];
+    if ('path' in mumpsDriver) {
+      for (const ordering of [...MUMPS_ORDERINGS, 'given']) {
+        const m = runMumps(mumpsDriver.path, dir, ordering, SCIPY_TIMEOUT_S);
+        if ('failed' in m) mumpsFailed.push(`${c.name}: MUMPS ${ordering} ${m.failed}`);
+        else if (m.orderingUsed === m.ordering) mumps.push(m); // an ordering the library lacks falls back to another: not reported twice
+        else mumpsFailed.push(`${c.name}: MUMPS has no ${ordering} here (it used ${m.orderingUsed})`);
+        if (!('failed' in m)) console.error(`  MUMPS ${ordering}: factor ${fmt(m.factorSeconds)} s`);
+      }
+    }
+    results.push({ c, ours, splu, oct, mmdTimedOut: stops.find((s) => s.ordering === 'MMD_AT_PLUS_A' && !s.why)?.stoppedAfter ?? null, mumps, mumpsFailed });
   } finally {
     rmSync(dir, { recursive: true, force: true });
   }
@@ -156,11 +238,13 @@ if (results.length > 0) {
   say('## 1. Factorisation of assembled duct systems');
   say();
   say('Scenario: an elongated expansion chamber (0.25 × 0.2 m runs of 0.5 m, a 0.5 × 0.4 m chamber of the length given), 8 points per wavelength at the top frequency, assembled with `prepareScenario` + `systemAt` at that frequency (bench/scenarios.ts).');
-  say('Ours = lattice nested dissection + symbolic analysis (`analyzeMesh`), multifrontal LDLᵀ (`factor`), one `solve`, single thread. SciPy = `scipy.sparse.linalg.splu` (SuperLU, partial pivoting with its default threshold) on the same matrix read from the Matrix Market file, factor + solve timed inside Python, reading excluded, with OPENBLAS_NUM_THREADS=OMP_NUM_THREADS=1 so that both run on one thread. CPU seconds are process CPU time (Node `process.cpuUsage`, Python `time.process_time`): steadier than wall time when the machine is shared.');
+  say('Ours = lattice nested dissection + symbolic analysis (`analyzeMesh`), multifrontal LDLᵀ (`factor`, WebAssembly SIMD kernels unless noted), one `solve`, single thread; GFlop/s = our exact flop count / factor wall time. SciPy = `scipy.sparse.linalg.splu` (SuperLU, partial pivoting with its default threshold) on the same matrix read from the Matrix Market file, factor + solve timed inside Python, reading excluded, with OPENBLAS_NUM_THREADS=OMP_NUM_THREADS=1 so that both run on one thread. CPU seconds are process CPU time (Node `process.cpuUsage`, Python `time.process_time`): steadier than wall time when the machine is shared.');
   say();
   table(['case', 'order', 'dofs', 'nnz(A)', 'nnz(L) ours', 'GFlop', 'analyse s', 'factor s', 'factor CPU s', 'solve s', 'ours total s', 'GFlop/s', 'residual'],
     results.map(({ c, ours: o }) => [c.name, String(o.order), String(o.dofs), String(o.nnzA), String(o.nnzL), fmt(o.flops / 1e9, 1), fmt(o.analyseSeconds), fmt(o.factorSeconds), fmt(o.factorCpuSeconds), fmt(o.solveSeconds, 3),
       fmt(o.analyseSeconds + o.factorSeconds + o.solveSeconds), fmt(o.flops / 1e9 / o.factorSeconds), o.residual.toExponential(1)]));
+  mumpsSection(results);
+  threadSection(results);
   if (scipy) {
     say('Fill is compared like with like: SuperLU stores L (unit diagonal included) and U (diagonal included) for both triangles, so its factor has nnz(L) + nnz(U) − n distinct entries; our LDLᵀ stores one triangle, the same factorisation written out in full would have 2·nnz(L) − n. "fill ratio" = (2·nnz(L) − n) / (nnz(L)+nnz(U) − n) of SuperLU; "stored ratio" = our nnz(L) / SuperLU\'s nnz(L)+nnz(U) − n (what each keeps in memory, in complex entries). Time ratio = ours (analyse + factor + solve) / SuperLU (factor + solve; its ordering is inside splu).');
     say();
@@ -328,5 +412,6 @@ if (!skip.has('largest')) {
 }
 
 say(`Load average at the end: ${loadavg().map((x) => x.toFixed(2)).join(', ')}.`);
-writeFileSync(join(root, 'bench/RESULTS.md'), `${md.join('\n')}\n`);
-console.error('wrote bench/RESULTS.md');
+const outFile = flag('out')[0] ?? join(root, 'bench/RESULTS.md');
+writeFileSync(outFile, `${md.join('\n')}\n`);
+console.error(`wrote ${outFile}`);

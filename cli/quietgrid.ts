@@ -8,6 +8,7 @@ import { exportCommand, importCommand } from './system.ts';
 import { mergeCommand } from './merge.ts';
 import { verifyCommand } from './verify.ts';
 import { SolverFailure } from '../engine/solve/linear.ts';
+import { applyKernelChoice } from '../engine/node/kernelChoice.ts';
 
 export const HELP = `Usage: quietgrid COMMAND [options]
 
@@ -68,6 +69,12 @@ export async function main(argv: string[], io: Io): Promise<number> {
   const command = COMMANDS[name];
   if (!command) {
     io.err(`quietgrid: unknown command "${name}"; the commands are ${Object.keys(COMMANDS).join(', ')} (see quietgrid --help)`);
+    return EXIT_USAGE;
+  }
+  try {
+    applyKernelChoice();
+  } catch (e) {
+    io.err(`quietgrid: ${(e as Error).message}`);
     return EXIT_USAGE;
   }
   try {

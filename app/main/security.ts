@@ -114,9 +114,19 @@ export function denyPermission(_contents: unknown, _permission: string, callback
   callback(false);
 }
 
+/**
+ * Cross-origin isolation: with these the page and its workers may share memory (SharedArrayBuffer, shared
+ * WebAssembly memory), which threads in one factorisation need. Safe here because the app loads nothing from
+ * another origin (the CSP above already refuses it). Sent by the app's scheme and by vite's dev and preview servers.
+ */
+export const ISOLATION_HEADERS: Readonly<Record<string, string>> = {
+  'Cross-Origin-Opener-Policy': 'same-origin',
+  'Cross-Origin-Embedder-Policy': 'require-corp',
+};
+
 /** Response headers added to every file the app's scheme serves. */
 export const RESPONSE_HEADERS: Readonly<Record<string, string>> = {
   'Content-Security-Policy': CONTENT_SECURITY_POLICY,
   'X-Content-Type-Options': 'nosniff',
-  'Cross-Origin-Opener-Policy': 'same-origin',
+  ...ISOLATION_HEADERS,
 };

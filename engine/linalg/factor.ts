@@ -11,8 +11,14 @@
  */
 import type { ComplexCsr } from './sparse.ts';
 import type { Symbolic } from './symbolic.ts';
-import { factorFront, type FrontDiagonal, type PivotPolicy } from './frontal.ts';
-import { NonFiniteMatrixError, SingularSystemError } from './errors.ts';
+import type { FrontDiagonal } from './frontal.ts';
+import { createArena, defaultKernel, type FrontArena } from './frontArena.ts';
+import type { KernelKind } from './denseKernels.ts';
+import { SingularSystemError } from './errors.ts';
+import { ParallelState, type HelperThreads } from './parallelFactor.ts';
+import { factorFronts, PivotGuard, type PivotRecord } from './fronts.ts';
+
+export type { PivotRecord } from './fronts.ts';
 
 export interface FactorOptions {
   /** |d_j| below pivotTolerance · max_k |A_jk| counts as zero and is perturbed. Default 1e-12. */
@@ -21,30 +27,31 @@ export interface FactorOptions {
   maxPerturbed?: number;
 }
 
-export interface PivotRecord {
-  permuted: number;
-  original: number;
-  magnitude: number; // |d| as computed, before any perturbation
-  scale: number; // max |A_jk| of its original row
-}
-
 export interface Numeric {
   symbolic: Symbolic;
   matrix: ComplexCsr; // the matrix factored, kept (not copied) for the residual check and refinement: leave its values alone while N is in use
-  panels: Float64Array; // 2 · storedEntries: supernode panels, see frontal.ts for their layout
+  panels: Float64Array; // 2 · storedEntries: supernode panels, row-major F × ns each (row i: L[i, 0..ns), D on the diagonal, strict upper part zero)
   diagonal: FrontDiagonal; // D and 1/D in the factor's numbering
   perturbed: number; // pivots replaced under the tolerance
   smallestPivot: PivotRecord | null; // the pivot smallest relative to its row scale (null when n = 0)
   workspace: FactorWorkspace; // where panels and diagonal live
   generation: number; // the workspace's count when this factor was made: a later factor() in it overwrites this one
+  kernel: KernelKind; // the dense kernels that computed it
 }
 
 export const DEFAULT_PIVOT_TOLERANCE = 1e-12;
-/** Offsets into the panel and stack arrays are Int32 in the kernels. */
+/** Offsets into the panels are Int32-safe doubles in the solves. */
 const INDEX_LIMIT = 0x7fffffff;
 
 interface FactorArrays {
-  panels: Float64Array; stack: Float64Array; work: Float64Array; map: Int32Array; rel: Int32Array; rowStart: Int32Array; scale: Float64Array; diagonal: FrontDiagonal;
+  panels: Float64Array; map: Int32Array; scale: Float64Array; diagonal: FrontDiagonal; arena: FrontArena; parallel: ParallelState | null;
+}
+
+export interface WorkspaceOptions {
+  /** The dense kernels: 'simd' (WebAssembly, the default where the runtime has it) or 'js'. */
+  kernel?: KernelKind;
+  /** Helper threads that factor subtrees alongside the caller (parallelFactor.ts); none by default. */
+  threads?: HelperThreads;
 }
 
 /**
@@ -55,26 +62,40 @@ interface FactorArrays {
  */
 export class FactorWorkspace {
   generation = 0;
+  readonly kernel: KernelKind;
+  private readonly threads: HelperThreads | null;
   private arrays: FactorArrays | null = null;
 
-  constructor(readonly symbolic: Symbolic) {}
+  constructor(readonly symbolic: Symbolic, opts: WorkspaceOptions = {}) {
+    this.kernel = opts.kernel ?? defaultKernel();
+    this.threads = opts.threads && opts.threads.size > 0 ? opts.threads : null;
+  }
 
-  /** The arrays for one more factorisation (allocated once): what an earlier Numeric in it held is invalid from now on. */
-  next(): FactorArrays {
+  /** The arrays for one more factorisation of A's pattern (allocated once): what an earlier Numeric in it held is invalid from now on. */
+  next(A: ComplexCsr): FactorArrays {
     this.generation++;
-    return (this.arrays ??= allocate(this.symbolic));
+    return (this.arrays ??= allocate(this.symbolic, A, this.kernel, this.threads));
+  }
+
+  /** Ends the helper threads, if any (a workspace without threads needs no closing). */
+  close(): void {
+    this.arrays?.parallel?.close();
   }
 }
 
-function allocate(S: Symbolic): FactorArrays {
-  if (2 * Math.max(S.storedEntries, S.stackPeak) > INDEX_LIMIT) {
-    throw new RangeError(`factor: ${S.storedEntries} factor entries exceed what 32-bit offsets address; the problem is too large for this solver`);
+function allocate(S: Symbolic, A: ComplexCsr, kernel: KernelKind, threads: HelperThreads | null): FactorArrays {
+  if (2 * S.storedEntries > 2 ** 53 || 2 * S.maxFront * S.maxFront > INDEX_LIMIT) {
+    throw new RangeError(`factor: fronts of order ${S.maxFront} (${S.storedEntries} factor entries) are too large for this solver`);
   }
-  const n = S.n;
+  const n = S.n, arena = createArena(S.arena, kernel), map = new Int32Array(n);
+  if (threads) {
+    const p = new ParallelState(S, A, threads, kernel);
+    return { panels: p.panels, map, scale: p.scale, diagonal: p.diagonal, arena, parallel: p };
+  }
   return {
-    panels: new Float64Array(2 * S.storedEntries), stack: new Float64Array(2 * S.stackPeak), work: new Float64Array(2 * S.workEntries),
-    map: new Int32Array(n), rel: new Int32Array(S.maxFront), rowStart: new Int32Array(S.maxFront), scale: new Float64Array(n),
+    panels: new Float64Array(2 * S.storedEntries), map, scale: new Float64Array(n),
     diagonal: { dRe: new Float64Array(n), dIm: new Float64Array(n), invRe: new Float64Array(n), invIm: new Float64Array(n) },
+    arena, parallel: null,
   };
 }
 
@@ -83,37 +104,26 @@ export function factor(A: ComplexCsr, S: Symbolic, opts: FactorOptions = {}, wor
   checkPattern(A, S);
   if (workspace.symbolic !== S) throw new RangeError('factor: the workspace was made for another analysis');
   const n = S.n;
-  const { panels, stack, work, map, rel, rowStart, scale, diagonal } = workspace.next();
-  const guard = new PivotGuard(S, scale, opts.pivotTolerance ?? DEFAULT_PIVOT_TOLERANCE, opts.maxPerturbed ?? Math.max(8, Math.floor(n / 1000)));
-  const { superStart, rowPtr, rowIdx, childPtr, child, panelPtr } = S;
-  let top = 0; // doubles in use on the stack
-  for (let s = 0; s < S.nSuper; s++) {
-    const first = superStart[s], ns = superStart[s + 1] - first;
-    const r0 = rowPtr[s], m = rowPtr[s + 1] - r0, F = ns + m;
-    const off = 2 * panelPtr[s];
-    for (let t = 0; t < ns; t++) map[first + t] = t;
-    for (let t = 0; t < m; t++) map[rowIdx[r0 + t]] = ns + t;
-    const cOff = top, cLen = m * (m + 1);
-    stack.fill(0, cOff, cOff + cLen);
-    panels.fill(0, off, off + 2 * F * ns); // a reused workspace holds the previous factor here
-    assembleColumns(A, S, first, ns, map, panels, off, scale);
-    let base = cOff;
-    for (let c = childPtr[s + 1] - 1; c >= childPtr[s]; c--) {
-      const mc = rowPtr[child[c] + 1] - rowPtr[child[c]];
-      base -= mc * (mc + 1);
+  const { panels, map, scale, diagonal, arena, parallel } = workspace.next(A);
+  const tolerance = opts.pivotTolerance ?? DEFAULT_PIVOT_TOLERANCE, limit = opts.maxPerturbed ?? Math.max(8, Math.floor(n / 1000));
+  const guard = new PivotGuard(S.perm, scale, tolerance, limit);
+  if (parallel) {
+    const job = { A, S, panels, map, scale, diagonal, arena, guard, handoff: parallel.handoff };
+    parallel.start(A, tolerance, limit);
+    let mine: unknown = null;
+    try {
+      factorFronts(job, parallel.plan.lists[0], 0, parallel.plan.lists[0].length);
+    } catch (e) {
+      mine = e;
     }
-    let src = base;
-    for (let c = childPtr[s]; c < childPtr[s + 1]; c++) {
-      const ch = child[c];
-      const mc = rowPtr[ch + 1] - rowPtr[ch];
-      extendAdd(stack, src, rowIdx, rowPtr[ch], mc, map, rel, panels, off, ns, cOff);
-      src += mc * (mc + 1);
-    }
-    factorFront(panels, off, F, ns, stack, cOff, work, first, diagonal, guard, rowStart);
-    stack.copyWithin(base, cOff, cOff + cLen);
-    top = base + cLen;
+    parallel.join(guard); // always: the helpers must be idle before the workspace is used again
+    if (mine) throw mine;
+    if (guard.count > limit) throw new SingularSystemError({ permuted: guard.minAt, original: S.perm[guard.minAt] }, guard.minMagnitude, scale[guard.minAt], `${guard.count} pivots fell below ${tolerance} of their row's largest entry`);
+    factorFronts(job, parallel.plan.top, 0, parallel.plan.top.length);
+  } else {
+    factorFronts({ A, S, panels, map, scale, diagonal, arena, guard, handoff: null }, null, 0, S.nSuper);
   }
-  return { symbolic: S, matrix: A, panels, diagonal, perturbed: guard.count, smallestPivot: guard.smallest(), workspace, generation: workspace.generation };
+  return { symbolic: S, matrix: A, panels, diagonal, perturbed: guard.count, smallestPivot: guard.smallest(), workspace, generation: workspace.generation, kernel: arena.kernels.kind };
 }
 
 function checkPattern(A: ComplexCsr, S: Symbolic): void {
@@ -122,101 +132,3 @@ function checkPattern(A: ComplexCsr, S: Symbolic): void {
   }
 }
 
-/** Scatters the lower part (in the factor's order) of A's rows for the front's pivot columns; records row scales. */
-function assembleColumns(A: ComplexCsr, S: Symbolic, first: number, ns: number, map: Int32Array, P: Float64Array, off: number, scale: Float64Array): void {
-  const { rowPtr, colIdx, re, im } = A;
-  const { perm, pinv } = S;
-  for (let jl = 0; jl < ns; jl++) {
-    const j = first + jl, row = perm[j];
-    let amax = 0;
-    for (let k = rowPtr[row]; k < rowPtr[row + 1]; k++) {
-      const vr = re[k], vi = im[k];
-      if (vr - vr !== 0 || vi - vi !== 0) throw new NonFiniteMatrixError(row, colIdx[k]);
-      const mag2 = vr * vr + vi * vi;
-      if (mag2 > amax) amax = mag2;
-      const i = pinv[colIdx[k]];
-      if (i < j) continue;
-      const q = off + 2 * (map[i] * ns + jl);
-      P[q] += vr;
-      P[q + 1] += vi;
-    }
-    scale[j] = Math.sqrt(amax);
-  }
-}
-
-/** Adds a child's packed update matrix into the parent's panel (rows/columns among its pivots) and update matrix. */
-function extendAdd(
-  stack: Float64Array, src: number, rowIdx: Int32Array, rs: number, mc: number, map: Int32Array,
-  rel: Int32Array, P: Float64Array, off: number, ns: number, cOff: number,
-): void {
-  let q = 0; // child rows that land among the parent's pivot columns come first (rows are sorted)
-  for (let a = 0; a < mc; a++) {
-    rel[a] = map[rowIdx[rs + a]];
-    if (rel[a] < ns) q++;
-  }
-  for (let a = 0; a < mc; a++) {
-    const pa = rel[a];
-    const pRow = off + 2 * pa * ns;
-    const lim = a < q ? a + 1 : q;
-    for (let b = 0; b < lim; b++) {
-      const d = pRow + 2 * rel[b];
-      P[d] += stack[src];
-      P[d + 1] += stack[src + 1];
-      src += 2;
-    }
-    if (a < q) continue;
-    const cRow = cOff + (pa - ns) * (pa - ns + 1) - 2 * ns;
-    for (let b = q; b <= a; b++) {
-      const d = cRow + 2 * rel[b];
-      stack[d] += stack[src];
-      stack[d + 1] += stack[src + 1];
-      src += 2;
-    }
-  }
-}
-
-/** Pivot guard: zero or non-finite pivots throw; tiny ones are perturbed (keeping their phase) and counted. */
-class PivotGuard implements PivotPolicy {
-  count = 0;
-  private minRatio = Infinity; // smallest |d| / scale seen
-  private minAt = -1;
-  private minMagnitude = 0;
-
-  constructor(
-    private readonly S: Symbolic,
-    private readonly scale: Float64Array,
-    private readonly tolerance: number,
-    private readonly limit: number,
-  ) {}
-
-  accept(j: number, dr: number, di: number, out: Float64Array): void {
-    const mag = Math.sqrt(dr * dr + di * di);
-    const scale = this.scale[j];
-    if (!(mag > 0) || mag === Infinity) throw new SingularSystemError(this.where(j), mag, scale);
-    if (mag / scale < this.minRatio) {
-      this.minRatio = mag / scale;
-      this.minAt = j;
-      this.minMagnitude = mag;
-    }
-    const floor = this.tolerance * scale;
-    if (mag < floor) {
-      this.count++;
-      if (this.count > this.limit) {
-        throw new SingularSystemError(this.where(j), mag, scale, `${this.count} pivots fell below ${this.tolerance} of their row's largest entry`);
-      }
-      dr *= floor / mag;
-      di *= floor / mag;
-    }
-    out[0] = dr;
-    out[1] = di;
-  }
-
-  smallest(): PivotRecord | null {
-    if (this.minAt === -1) return null;
-    return { ...this.where(this.minAt), magnitude: this.minMagnitude, scale: this.scale[this.minAt] };
-  }
-
-  private where(j: number): { permuted: number; original: number } {
-    return { permuted: j, original: this.S.perm[j] };
-  }
-}

@@ -1,15 +1,14 @@
 import { subtractLowerProducts, subtractProducts } from './denseProducts.ts';
+import { NB, type FrontArena } from './frontArena.ts';
 
 /**
- * Dense kernels of one frontal matrix: partial LDLᵀ of its ns leading columns (complex symmetric,
- * no conjugation) and the Schur complement update of the rest.
+ * Dense factorisation of one frontal matrix: partial LDLᵀ of its ns leading columns (complex
+ * symmetric, no conjugation) and the Schur complement update of the rest.
  *
- * Storage, all complex entries interleaved (re, im):
- *  - panel P at offset off: F × ns, row-major, F = ns + m. Row i holds L[i, 0..ns); on output the
- *    diagonal entries hold D and the strict upper part of the leading ns × ns block is unused.
- *    Rows are contiguous so that every inner loop is a dot product over unit-stride memory.
- *  - update matrix C at offset cOff: the m × m lower triangle, packed by rows, (a, b) at a(a+1)/2 + b.
- *  - W: workspace of ns·max(ns, m) entries holding rows of L·D.
+ * The front is F × F (F = ns + m), row-major in the arena (frontArena.ts) with row stride 2F
+ * doubles, lower triangle. On output its first ns columns hold L (unit diagonal implied, D on the
+ * diagonal) and its trailing m × m block the update matrix for the parent. Rows are contiguous so
+ * that every inner loop is a dot product over unit-stride memory.
  * Golub & Van Loan, "Matrix Computations", 4th ed. (2013), §4.1.2 (LDLᵀ).
  */
 
@@ -26,133 +25,80 @@ export interface FrontDiagonal {
 }
 
 const pivotOut = new Float64Array(2);
-/** Pivot columns per block: inside a block the work is short dot products, across blocks it is subtractProducts. */
-const NB = 32;
 
 /**
  * Factors the front in place; `first` is the global index of its first pivot column.
- * rowStart is workspace of at least F entries.
  *
- * Left-looking blocked Crout: for each block K of pivot columns, first every row below subtracts
- * the contributions of the finished columns in one matrix product, then the block is finished
- * with short dot products (Golub & Van Loan, "Matrix Computations", 4th ed. 2013, §3.2.11, §4.2.9).
+ * Left-looking blocked Crout: for each block K of NB pivot columns, first every row below subtracts
+ * the contributions of the finished columns in one matrix product, then the diagonal block is
+ * factored (here, with the pivot policy) and the rows below it solved against it (the kernels);
+ * last, the trailing block subtracts L₂ D L₂ᵀ in one product (Golub & Van Loan, 2013, §3.2.11, §4.2.9).
+ * Flops: 8(ns³/6 + m·ns²/2 + m²·ns/2) in the products, about.
  */
-export function factorFront(
-  P: Float64Array, off: number, F: number, ns: number, C: Float64Array, cOff: number,
-  W: Float64Array, first: number, D: FrontDiagonal, policy: PivotPolicy, rowStart: Int32Array,
-): void {
-  const len = 2 * ns;
-  for (let i = 0; i < F; i++) rowStart[i] = off + i * len;
+export function factorFront(a: FrontArena, F: number, ns: number, first: number, D: FrontDiagonal, policy: PivotPolicy): void {
+  const { kernels: K, layout: L } = a;
+  const fo = L.front, fs = 2 * F;
   for (let k0 = 0; k0 < ns; k0 += NB) {
-    const k1 = Math.min(ns, k0 + NB);
+    const k1 = Math.min(ns, k0 + NB), nb = k1 - k0;
     if (k0 > 0) {
-      scaleRowsByD(P, off + k0 * len, k1 - k0, ns, 0, k0, W, k0 * len, first, D);
-      subtractProducts(P, off + k0 * len, len, W, k0 * len, len, F - k0, k1 - k0, 2 * k0, P, rowStart, k0, k0);
+      K.packScaled(fo + k0 * fs, fs, nb, k0, L.d, L.w, 4 * k0);
+      subtractProducts(K, fo + k0 * fs + 2 * k0, fs, fo + k0 * fs, fs, L.w, 4 * k0, F - k0, nb, k0);
     }
-    factorDiagonalBlock(P, off, ns, k0, k1, W, first, D, policy);
-    solvePanelRows(P, off, ns, k0, k1, F, W, first, D);
+    factorDiagonalBlock(a, fo, fs, k0, k1, first, D, policy);
+    if (k1 < F) K.solveRows(fo + k1 * fs + 2 * k0, fs, F - k1, nb, L.wBlock, 4 * NB, L.inv + 2 * k0);
   }
   const m = F - ns;
   if (m === 0) return;
-  scaleRowsByD(P, off + ns * len, m, ns, 0, ns, W, 0, first, D);
-  for (let a = 0; a < m; a++) rowStart[a] = cOff + a * (a + 1);
-  subtractLowerProducts(P, off + ns * len, W, 0, len, m, len, C, rowStart);
+  K.packScaled(fo + ns * fs, fs, m, ns, L.d, L.w, 4 * ns);
+  subtractLowerProducts(K, fo + ns * fs + 2 * ns, fs, fo + ns * fs, fs, L.w, 4 * ns, m, ns);
 }
 
 /**
  * Rows k0 ≤ i < k1 of the diagonal block, columns k0 ≤ k ≤ i (the earlier columns are already
- * subtracted); leaves W row i = L[i, k0..i)·D for the panel rows.
+ * subtracted). Leaves the block's scaled rows L[i, k0..i)·D in wBlock (pairs, row stride 4·NB) for
+ * solveRows, and the pivots and their inverses in the arena's d and inv and in D.
  */
-function factorDiagonalBlock(P: Float64Array, off: number, ns: number, k0: number, k1: number, W: Float64Array, first: number, D: FrontDiagonal, policy: PivotPolicy): void {
+function factorDiagonalBlock(a: FrontArena, fo: number, fs: number, k0: number, k1: number, first: number, D: FrontDiagonal, policy: PivotPolicy): void {
+  const M = a.f64, { wBlock, d, inv } = a.layout;
   const { dRe, dIm, invRe, invIm } = D;
-  const t0 = 2 * k0;
   for (let i = k0; i < k1; i++) {
-    const ri = off + 2 * i * ns;
+    const ri = fo + i * fs;
     for (let k = k0; k < i; k++) {
-      const wk = 2 * k * ns;
-      let sr = P[ri + 2 * k], si = P[ri + 2 * k + 1];
-      for (let t = t0; t < 2 * k; t += 2) {
-        const lr = P[ri + t], li = P[ri + t + 1], wr = W[wk + t], wi = W[wk + t + 1];
+      const wk = wBlock + 4 * NB * (k - k0) - 4 * k0;
+      let sr = M[ri + 2 * k], si = M[ri + 2 * k + 1];
+      for (let t = k0; t < k; t++) {
+        const lr = M[ri + 2 * t], li = M[ri + 2 * t + 1], wr = M[wk + 4 * t], wi = M[wk + 4 * t + 1];
         sr -= lr * wr - li * wi;
         si -= lr * wi + li * wr;
       }
-      const ar = invRe[first + k], ai = invIm[first + k];
-      P[ri + 2 * k] = sr * ar - si * ai;
-      P[ri + 2 * k + 1] = sr * ai + si * ar;
+      const ar = M[inv + 2 * k], ai = M[inv + 2 * k + 1];
+      M[ri + 2 * k] = sr * ar - si * ai;
+      M[ri + 2 * k + 1] = sr * ai + si * ar;
     }
-    const wi0 = 2 * i * ns;
-    let sr = P[ri + 2 * i], si = P[ri + 2 * i + 1];
+    const wi0 = wBlock + 4 * NB * (i - k0) - 4 * k0;
+    let sr = M[ri + 2 * i], si = M[ri + 2 * i + 1];
     for (let t = k0; t < i; t++) {
-      const lr = P[ri + 2 * t], li = P[ri + 2 * t + 1], dr = dRe[first + t], di = dIm[first + t];
+      const lr = M[ri + 2 * t], li = M[ri + 2 * t + 1], dr = M[d + 2 * t], di = M[d + 2 * t + 1];
       const wr = lr * dr - li * di, wi = lr * di + li * dr;
-      W[wi0 + 2 * t] = wr;
-      W[wi0 + 2 * t + 1] = wi;
+      M[wi0 + 4 * t] = wr;
+      M[wi0 + 4 * t + 1] = wi;
+      M[wi0 + 4 * t + 2] = wi;
+      M[wi0 + 4 * t + 3] = wr;
       sr -= lr * wr - li * wi;
       si -= lr * wi + li * wr;
     }
     policy.accept(first + i, sr, si, pivotOut);
     const dr = pivotOut[0], di = pivotOut[1];
-    const mag2 = dr * dr + di * di;
+    const mag2 = dr * dr + di * di, ir = dr / mag2, ii = -di / mag2;
     dRe[first + i] = dr;
     dIm[first + i] = di;
-    invRe[first + i] = dr / mag2;
-    invIm[first + i] = -di / mag2;
-    P[ri + 2 * i] = dr;
-    P[ri + 2 * i + 1] = di;
-  }
-}
-
-/** Columns k0 ≤ k < k1 of the rows below the diagonal block: L[i, k] = (A[i, k] − Σ L[i, t]·W[k, t]) / d_k, two rows at a time. */
-function solvePanelRows(P: Float64Array, off: number, ns: number, k0: number, k1: number, F: number, W: Float64Array, first: number, D: FrontDiagonal): void {
-  const { invRe, invIm } = D;
-  const t0 = 2 * k0;
-  let i = k1;
-  for (; i + 1 < F; i += 2) {
-    const r0 = off + 2 * i * ns, r1 = r0 + 2 * ns;
-    for (let k = k0; k < k1; k++) {
-      const wk = 2 * k * ns;
-      let s0r = P[r0 + 2 * k], s0i = P[r0 + 2 * k + 1], s1r = P[r1 + 2 * k], s1i = P[r1 + 2 * k + 1];
-      for (let t = t0; t < 2 * k; t += 2) {
-        const wr = W[wk + t], wi = W[wk + t + 1];
-        const ar = P[r0 + t], ai = P[r0 + t + 1], br = P[r1 + t], bi = P[r1 + t + 1];
-        s0r -= ar * wr - ai * wi;
-        s0i -= ar * wi + ai * wr;
-        s1r -= br * wr - bi * wi;
-        s1i -= br * wi + bi * wr;
-      }
-      const dr = invRe[first + k], di = invIm[first + k];
-      P[r0 + 2 * k] = s0r * dr - s0i * di;
-      P[r0 + 2 * k + 1] = s0r * di + s0i * dr;
-      P[r1 + 2 * k] = s1r * dr - s1i * di;
-      P[r1 + 2 * k + 1] = s1r * di + s1i * dr;
-    }
-  }
-  if (i < F) {
-    const r0 = off + 2 * i * ns;
-    for (let k = k0; k < k1; k++) {
-      const wk = 2 * k * ns;
-      let sr = P[r0 + 2 * k], si = P[r0 + 2 * k + 1];
-      for (let t = t0; t < 2 * k; t += 2) {
-        const wr = W[wk + t], wi = W[wk + t + 1], ar = P[r0 + t], ai = P[r0 + t + 1];
-        sr -= ar * wr - ai * wi;
-        si -= ar * wi + ai * wr;
-      }
-      const dr = invRe[first + k], di = invIm[first + k];
-      P[r0 + 2 * k] = sr * dr - si * di;
-      P[r0 + 2 * k + 1] = sr * di + si * dr;
-    }
-  }
-}
-
-/** W rows w0.. = rows of P from p0 (count rows) times D, columns [c0, c1). */
-function scaleRowsByD(P: Float64Array, p0: number, rows: number, ns: number, c0: number, c1: number, W: Float64Array, w0: number, first: number, D: FrontDiagonal): void {
-  const { dRe, dIm } = D;
-  for (let a = 0; a < rows; a++) {
-    const ra = p0 + 2 * a * ns, wa = w0 + 2 * a * ns;
-    for (let t = c0; t < c1; t++) {
-      const lr = P[ra + 2 * t], li = P[ra + 2 * t + 1], dr = dRe[first + t], di = dIm[first + t];
-      W[wa + 2 * t] = lr * dr - li * di;
-      W[wa + 2 * t + 1] = lr * di + li * dr;
-    }
+    invRe[first + i] = ir;
+    invIm[first + i] = ii;
+    M[d + 2 * i] = dr;
+    M[d + 2 * i + 1] = di;
+    M[inv + 2 * i] = ir;
+    M[inv + 2 * i + 1] = ii;
+    M[ri + 2 * i] = dr;
+    M[ri + 2 * i + 1] = di;
   }
 }

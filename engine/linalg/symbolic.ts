@@ -15,6 +15,7 @@ import { eliminationTree, postorder } from './etree.ts';
 import { columnCounts } from './colCounts.ts';
 import { supernodePartition } from './supernodes.ts';
 import { assertPermutation, invertPermutation } from './permutation.ts';
+import { arenaLayout, NB, type ArenaLayout } from './frontArena.ts';
 
 export interface Symbolic {
   n: number;
@@ -36,9 +37,11 @@ export interface Symbolic {
   storedEntries: number; // panelPtr[nSuper] = Σ (ns + m)·ns: complex entries the factor stores
   frontFlops: number; // real flops the dense kernels perform, amalgamation zeros included
   stackPeak: number; // complex entries of the update-matrix stack at its peak
-  workEntries: number; // complex entries of the dense kernel workspace
+  workEntries: number; // complex entries of the packed scaled rows the kernels read (2 per pair)
   maxFront: number; // largest front order ns + m
-  memoryBytes: number; // bytes of factor()'s memory (FactorWorkspace): factor + stack + workspace + maps
+  maxPivots: number; // largest ns
+  arena: ArenaLayout; // where each front is computed (frontArena.ts)
+  memoryBytes: number; // bytes of factor()'s memory (FactorWorkspace): panels + arena + per-column arrays
 }
 
 /** Analyses the pattern once; perm (perm[new] = old) defaults to minimumDegree(p). */
@@ -101,11 +104,12 @@ function supernodalStructure(p: SparsePattern, perm: Int32Array, parent: Int32Ar
     nnzL += colCount[j];
     flops += 4 * r * (r + 1) + 6 * r;
   }
-  // the arrays of a FactorWorkspace (factor.ts): panels, stack and work (complex), D and 1/D (4 reals a column), row scales, map, and two front-sized index arrays
-  const memoryBytes = 16 * (sizes.storedEntries + sizes.stackPeak + sizes.workEntries) + (32 + 8 + 4) * n + 2 * 4 * sizes.maxFront;
+  // the arrays of a FactorWorkspace (factor.ts): panels (complex), the front arena, D and 1/D (4 reals a column), row scales and the map
+  const arena = arenaLayout(sizes);
+  const memoryBytes = 16 * sizes.storedEntries + arena.bytes + (32 + 8 + 4) * n;
   return {
     n, nnzA: p.rowPtr[n], perm, pinv, parent, colCount, nnzL, flops, nSuper, superStart, superParent,
-    childPtr, child, rowPtr, rowIdx, ...sizes, memoryBytes,
+    childPtr, child, rowPtr, rowIdx, ...sizes, arena, memoryBytes,
   };
 }
 
@@ -170,28 +174,29 @@ interface FrontSizes {
   stackPeak: number;
   workEntries: number;
   maxFront: number;
+  maxPivots: number;
 }
 
-/** Replays the multifrontal sweep: panel offsets, dense flops, and the peak of the update stack. */
+/** Replays the multifrontal sweep: panel offsets, dense flops, and the peak of the update stack (a front's children are popped before its own update matrix is pushed). */
 function frontSizes(superStart: Int32Array, rowPtr: Int32Array, childPtr: Int32Array, child: Int32Array): FrontSizes {
   const nSuper = superStart.length - 1;
   const panelPtr = new Float64Array(nSuper + 1);
-  let frontFlops = 0, stack = 0, stackPeak = 0, workEntries = 0, maxFront = 0;
+  let frontFlops = 0, stack = 0, stackPeak = 0, workEntries = 0, maxFront = 0, maxPivots = 0;
   for (let s = 0; s < nSuper; s++) {
     const ns = superStart[s + 1] - superStart[s];
     const m = rowPtr[s + 1] - rowPtr[s];
     panelPtr[s + 1] = panelPtr[s] + (ns + m) * ns;
     // diagonal block ns³/6, panel m·ns²/2, update m²·ns/2 complex multiply-adds of 8 flops
     frontFlops += 8 * ((ns * ns * ns) / 6 + (m * ns * ns) / 2 + (m * m * ns) / 2);
-    const cb = (m * (m + 1)) / 2;
-    stackPeak = Math.max(stackPeak, stack + cb);
     for (let c = childPtr[s]; c < childPtr[s + 1]; c++) {
       const mc = rowPtr[child[c] + 1] - rowPtr[child[c]];
       stack -= (mc * (mc + 1)) / 2;
     }
-    stack += cb;
-    workEntries = Math.max(workEntries, ns * Math.max(ns, m));
+    stack += (m * (m + 1)) / 2;
+    stackPeak = Math.max(stackPeak, stack);
+    workEntries = Math.max(workEntries, 2 * ns * Math.max(m, Math.min(ns, NB)));
     maxFront = Math.max(maxFront, ns + m);
+    maxPivots = Math.max(maxPivots, ns);
   }
-  return { panelPtr, storedEntries: panelPtr[nSuper], frontFlops, stackPeak, workEntries, maxFront };
+  return { panelPtr, storedEntries: panelPtr[nSuper], frontFlops, stackPeak, workEntries, maxFront, maxPivots };
 }

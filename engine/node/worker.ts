@@ -10,7 +10,9 @@ import { performance } from 'node:perf_hooks';
 import { prepareScenario, solvePoint, type Prepared } from '../solve/scenario.ts';
 import { finerScenario, solveAssessed } from '../solve/accuracy.ts';
 import type { FromWorker, ToWorker, WorkerSetup } from './pool.ts';
+import { applyKernelChoice } from './kernelChoice.ts';
 
+applyKernelChoice(); // the main thread has checked the value
 const port = parentPort!;
 const setup = workerData as WorkerSetup;
 const now = () => performance.now();

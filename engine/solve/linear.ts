@@ -4,7 +4,7 @@
  * checked (and refined when it is not at round-off or pivots were perturbed), and a singular or
  * ill-conditioned system turned into words about the physics instead of a silent wrong answer.
  */
-import { analyze, factor, solve, latticeDissection, SingularSystemError, FactorWorkspace, type Symbolic } from '../linalg/index.ts';
+import { analyze, factor, solve, latticeDissection, SingularSystemError, FactorWorkspace, type Symbolic, type WorkspaceOptions } from '../linalg/index.ts';
 import { relativeResidual, zeroVector, type ComplexCsr, type ComplexVector, type SparsePattern } from '../linalg/sparse.ts';
 import type { Mesh } from '../grid/mesh.ts';
 
@@ -38,8 +38,13 @@ export class SweepMemory {
   readonly factor: FactorWorkspace;
   private values: ComplexVector | null = null;
 
-  constructor(symbolic: Symbolic) {
-    this.factor = new FactorWorkspace(symbolic);
+  /** opts.threads: helper threads for each factorisation (a sweep's last frequencies, or a single one); close() ends them. */
+  constructor(symbolic: Symbolic, opts: WorkspaceOptions = {}) {
+    this.factor = new FactorWorkspace(symbolic, opts);
+  }
+
+  close(): void {
+    this.factor.close();
   }
 
   /** Room for the matrix values (nnzA entries), allocated at the first call; the caller overwrites every entry. */

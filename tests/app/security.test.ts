@@ -57,6 +57,8 @@ describe('content security policy', () => {
   it('is sent as a header with every file the app scheme serves', () => {
     expect(RESPONSE_HEADERS['Content-Security-Policy']).toBe(CONTENT_SECURITY_POLICY);
     expect(RESPONSE_HEADERS['X-Content-Type-Options']).toBe('nosniff');
+    // Source: WHATWG HTML Living Standard, §7.1.3 "Cross-origin opener policies" and §7.1.4 "Cross-origin embedder policies" (from memory for the numbering): both make the page cross-origin isolated
+    expect([RESPONSE_HEADERS['Cross-Origin-Opener-Policy'], RESPONSE_HEADERS['Cross-Origin-Embedder-Policy']]).toEqual(['same-origin', 'require-corp']);
   });
 });
 

@@ -70,6 +70,11 @@ describe('quietgrid in the browser', () => {
     expect(await page.locator('button.run').isEnabled()).toBe(true);
   });
 
+  it('is cross-origin isolated, so its workers may share memory (threads in one factorisation need it)', async () => {
+    // Source: WHATWG HTML Living Standard, "crossOriginIsolated" (from memory for the section): true only with COOP same-origin and COEP require-corp
+    expect(await page.evaluate(() => crossOriginIsolated && typeof SharedArrayBuffer === 'function')).toBe(true);
+  });
+
   it('redraws the sketch when a dimension is edited', async () => {
     await input('duct.sections[1].length').fill('500');
     await hasCount(page.locator('[data-view="plan"] .dimension text', { hasText: /^500 mm$/ }), 1);

@@ -7,6 +7,7 @@ import { readFile, stat } from 'node:fs/promises';
 import { extname, join, normalize, sep } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { chromium, type Browser } from 'playwright-core';
+import { ISOLATION_HEADERS } from '../../app/main/security.ts';
 
 export const REPO = fileURLToPath(new URL('../../', import.meta.url));
 export const CHROMIUM = '/usr/bin/chromium';
@@ -23,7 +24,7 @@ const TYPES: Record<string, string> = {
   '.svg': 'image/svg+xml', '.png': 'image/png', '.json': 'application/json', '.woff2': 'font/woff2',
 };
 
-/** Serves the folder on 127.0.0.1 at a free port; only files inside it, GET only. */
+/** Serves the folder on 127.0.0.1 at a free port; only files inside it, GET only; with the app's cross-origin isolation headers, as vite preview and the app's scheme send them. */
 export async function serveFolder(root: string): Promise<{ url: string; close(): Promise<void> }> {
   const base = normalize(root + sep);
   const server: Server = createServer((req, res) => {
@@ -33,7 +34,7 @@ export async function serveFolder(root: string): Promise<{ url: string; close():
       if (req.method !== 'GET' || !file.startsWith(base)) { res.writeHead(404).end(); return; }
       try {
         if (!(await stat(file)).isFile()) throw new Error('not a file');
-        res.writeHead(200, { 'content-type': TYPES[extname(file)] ?? 'application/octet-stream', 'cache-control': 'no-store' });
+        res.writeHead(200, { 'content-type': TYPES[extname(file)] ?? 'application/octet-stream', 'cache-control': 'no-store', ...ISOLATION_HEADERS });
         res.end(await readFile(file));
       } catch {
         res.writeHead(404).end();
