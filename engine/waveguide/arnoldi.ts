@@ -5,13 +5,13 @@
  * Numerical Methods for Large Eigenvalue Problems, 2nd ed. (2011), ch. 6 and §9.1).
  *
  * The caller supplies T as a function (one sparse LDLᵀ solve per product). The Krylov basis is kept
- * orthonormal by classical Gram–Schmidt with one full reorthogonalisation (Daniel, Gragg, Kaufman &
+ * orthonormal by classical Gram–Schmidt, reorthogonalised when needed (Daniel, Gragg, Kaufman &
  * Stewart, Math. Comp. 30, 1976). Instead of restarting, the basis grows by half until every Ritz value
  * inside the wanted disk |μ − σ| ≤ radius has converged and a converged one lies beyond it (so nothing
  * inside was skipped); with the basis as large as the space itself the answer is exact. A Ritz pair
  * (θ, V y) has residual ‖T V y − θ V y‖ = |h_{m+1,m}|·|y_m| (Saad 2011, Prop. 6.8).
  *
- * Cost: m products with T, 8·m²·n flops of orthogonalisation, and the dense QR of the m × m Hessenberg
+ * Cost: m products with T, 8·m²·n flops of orthogonalisation (a second Gram–Schmidt pass only where the first cancelled much), and the dense QR of the m × m Hessenberg
  * matrix at each check (about 10·m³ complex flops).
  */
 import type { ComplexVector } from '../linalg/index.ts';
@@ -136,6 +136,7 @@ function grow(H: CMatrix, rows: number, cols: number): CMatrix {
 /** w ← w − V Vᴴ w, twice; returns the coefficients of both passes summed. */
 function orthogonalise(V: ComplexVector[], count: number, w: ComplexVector): { re: Float64Array; im: Float64Array } {
   const h = { re: new Float64Array(count), im: new Float64Array(count) }, n = w.re.length;
+  let before = norm(w);
   for (let pass = 0; pass < 2; pass++) {
     const cr = new Float64Array(count), ci = new Float64Array(count);
     for (let j = 0; j < count; j++) {
@@ -155,6 +156,10 @@ function orthogonalise(V: ComplexVector[], count: number, w: ComplexVector): { r
       }
       h.re[j] += sr; h.im[j] += si;
     }
+    // a second pass only when the first cancelled much of w (Daniel, Gragg, Kaufman & Stewart 1976, η = 1/√2)
+    const after = norm(w);
+    if (after >= Math.SQRT1_2 * before) break;
+    before = after;
   }
   return h;
 }
