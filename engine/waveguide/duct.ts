@@ -20,7 +20,7 @@
 import { porousMedium, type PorousModel } from '../acoustics/index.ts';
 import { buildSectionGrid, type Fill, type Rect, type SectionGrid } from './grid.ts';
 import { sectionModes, type ModeSet, type SlotMedium } from './modes.ts';
-import { axialPower, coupling, interfaceScattering, pick, powerGram, propagation, star, type Coupling, type Scattering } from './matching.ts';
+import { axialPower, coupling, interfaceScattering, pick, powerGram, propagation, star, starPropagation, type Coupling, type Scattering } from './matching.ts';
 import { cmatrix, identity, luFactor, luSolve, matmul, type CMatrix } from './dense.ts';
 
 export interface PorousFill { model: PorousModel; flowResistivity: number }
@@ -172,6 +172,7 @@ interface Channel {
   base: number[][]; // per section: indices of the modes within K
   full: number[][]; // per section: all indices
   couplings: Coupling[]; // per interface
+  grams: Map<number, CMatrix>; // per distinct grid, the power form of all its modes (computed when first needed)
 }
 
 export function solveWaveguideAt(prep: PreparedWaveguide, frequencyHz: number, now: () => number = () => 0): WaveguidePoint {
@@ -192,7 +193,7 @@ export function solveWaveguideAt(prep: PreparedWaveguide, frequencyHz: number, n
       return out;
     });
     const couplings = solved.slice(1).map((s, i) => coupling({ modes: modes[solved[i].grid], fills: solved[i].fills }, { modes: modes[s.grid], fills: s.fills }, [solved[i].name, s.name]));
-    return { modes, base, full, couplings };
+    return { modes, base, full, couplings, grams: new Map() };
   });
   const t1 = now();
   // the inlet modes that can be incident, across z-orders, by attenuation
@@ -264,11 +265,15 @@ function run(prep: PreparedWaveguide, channels: Channel[], incident: { c: number
       const cp = ch.couplings[s - 1], small = cp.smaller === 'left' ? s - 1 : s, large = cp.smaller === 'left' ? s : s - 1;
       const W = pick(cp.W, sets[small], sets[large]);
       S = star(S, interfaceScattering(W, kOf(small), kOf(large), cp.smaller));
-      S = star(S, propagation(kOf(s), solved[s].length));
+      S = starPropagation(S, kOf(s), solved[s].length);
     }
     const inSet = sets[0], outSet = sets[last];
-    const msIn = ch.modes[solved[0].grid], msOut = ch.modes[solved[last].grid];
-    const Gin = powerGram(msIn, inSet), Gout = powerGram(msOut, outSet), kin = kOf(0), kout = kOf(last);
+    const gram = (grid: number) => {
+      let G = ch.grams.get(grid);
+      if (!G) { G = powerGram(ch.modes[grid], ch.full[solved.findIndex((x) => x.grid === grid)]); ch.grams.set(grid, G); }
+      return G;
+    };
+    const Gin = pick(gram(solved[0].grid), inSet, inSet), Gout = pick(gram(solved[last].grid), outSet, outSet), kin = kOf(0), kout = kOf(last);
     // incident columns: unit power in each incident mode
     const nIn = inSet.length, A = cmatrix(nIn, mine.length);
     mine.forEach((x, col) => {

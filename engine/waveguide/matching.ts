@@ -181,6 +181,39 @@ export function propagation(k: { re: ArrayLike<number>; im: ArrayLike<number> },
   return { nl: n, nr: n, s11: cmatrix(n, n), s12: D, s21: { ...D, re: D.re.slice(), im: D.im.slice() }, s22: cmatrix(n, n) };
 }
 
+/**
+ * A followed by a uniform section: the star product with [0 D; D 0], D = diag(e^{−j k_m L}), in O(n²):
+ * S11 = A11, S12 = A12 D, S21 = D A21, S22 = D A22 D.
+ */
+export function starPropagation(A: Scattering, k: { re: ArrayLike<number>; im: ArrayLike<number> }, length: number): Scattering {
+  const n = k.re.length;
+  if (A.nr !== n) throw new RangeError(`starPropagation: ${A.nr} modes meet ${n}`);
+  const dr = new Float64Array(n), di = new Float64Array(n);
+  for (let m = 0; m < n; m++) {
+    const mag = Math.exp(k.im[m] * length), ph = -k.re[m] * length;
+    dr[m] = mag * Math.cos(ph);
+    di[m] = mag * Math.sin(ph);
+  }
+  const s12 = cmatrix(A.nl, n), s21 = cmatrix(n, A.nl), s22 = cmatrix(n, n);
+  for (let i = 0; i < A.nl; i++) for (let j = 0; j < n; j++) {
+    const ar = A.s12.re[i * n + j], ai = A.s12.im[i * n + j];
+    s12.re[i * n + j] = ar * dr[j] - ai * di[j];
+    s12.im[i * n + j] = ar * di[j] + ai * dr[j];
+  }
+  for (let i = 0; i < n; i++) for (let j = 0; j < A.nl; j++) {
+    const ar = A.s21.re[i * A.nl + j], ai = A.s21.im[i * A.nl + j];
+    s21.re[i * A.nl + j] = dr[i] * ar - di[i] * ai;
+    s21.im[i * A.nl + j] = dr[i] * ai + di[i] * ar;
+  }
+  for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) {
+    const ar = A.s22.re[i * n + j], ai = A.s22.im[i * n + j];
+    const pr = dr[i] * dr[j] - di[i] * di[j], pi = dr[i] * di[j] + di[i] * dr[j];
+    s22.re[i * n + j] = ar * pr - ai * pi;
+    s22.im[i * n + j] = ar * pi + ai * pr;
+  }
+  return { nl: A.nl, nr: n, s11: A.s11, s12, s21, s22 };
+}
+
 function addInto(A: CMatrix, B: CMatrix): CMatrix {
   for (let i = 0; i < A.re.length; i++) { A.re[i] += B.re[i]; A.im[i] += B.im[i]; }
   return A;
