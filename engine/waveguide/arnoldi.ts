@@ -37,7 +37,7 @@ type Op = (x: ComplexVector, y: ComplexVector) => void;
 
 export function shiftInvertEigs(apply: Op, n: number, sigma: { re: number; im: number }, opts: EigsOptions): EigsResult {
   const tol = opts.tol ?? 1e-10, thetaMin = 1 / opts.radius;
-  let m = Math.min(n, Math.max(24, 2 * (opts.expected ?? 10) + 20));
+  let m = Math.min(n, Math.max(24, Math.ceil(1.5 * (opts.expected ?? 10)) + 16));
   const V: ComplexVector[] = [];
   let H = cmatrix(1, 0), checks = 0;
   let seed = 2024;
@@ -137,22 +137,25 @@ function grow(H: CMatrix, rows: number, cols: number): CMatrix {
 function orthogonalise(V: ComplexVector[], count: number, w: ComplexVector): { re: Float64Array; im: Float64Array } {
   const h = { re: new Float64Array(count), im: new Float64Array(count) }, n = w.re.length;
   let before = norm(w);
+  const wr = w.re, wi = w.im;
   for (let pass = 0; pass < 2; pass++) {
     const cr = new Float64Array(count), ci = new Float64Array(count);
     for (let j = 0; j < count; j++) {
       const vr = V[j].re, vi = V[j].im;
       let sr = 0, si = 0;
       for (let i = 0; i < n; i++) {
-        sr += vr[i] * w.re[i] + vi[i] * w.im[i];
-        si += vr[i] * w.im[i] - vi[i] * w.re[i];
+        const a = vr[i], b = vi[i], x = wr[i], y = wi[i];
+        sr += a * x + b * y;
+        si += a * y - b * x;
       }
       cr[j] = sr; ci[j] = si;
     }
     for (let j = 0; j < count; j++) {
       const vr = V[j].re, vi = V[j].im, sr = cr[j], si = ci[j];
       for (let i = 0; i < n; i++) {
-        w.re[i] -= vr[i] * sr - vi[i] * si;
-        w.im[i] -= vr[i] * si + vi[i] * sr;
+        const a = vr[i], b = vi[i];
+        wr[i] -= a * sr - b * si;
+        wi[i] -= a * si + b * sr;
       }
       h.re[j] += sr; h.im[j] += si;
     }
