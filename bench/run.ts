@@ -9,8 +9,9 @@
  *   3. the symbolic memory estimate against the measured peak of the factorisation (one child process per size);
  *   4. a 24-frequency sweep with 1 and 2 workers through the command line;
  *   5. start-up: the smallest demo scenario end to end;
- *   6. the longest elongated duct whose solve fits in 8 GiB: found by the estimate, then solved and its peak measured.
- * Options: --only=small,medium (factor cases), --skip=factor,sweep,startup,largest,reference (factor: sections 1–3), --scipy-timeout=SECONDS (per ordering, default 1800),
+ *   6. the longest elongated duct whose solve fits in 8 GiB: found by the estimate, then solved and its peak measured;
+ *   7. a splitter silencer by waveguide sections over octave bands 63 Hz – 8 kHz (bench/waveguide-splitter.ts).
+ * Options: --only=small,medium (factor cases), --skip=factor,sweep,startup,largest,waveguide,reference (factor: sections 1–3), --scipy-timeout=SECONDS (per ordering, default 1800),
  * --sweep-rounds=N (alternating 1- and 2-worker runs of the sweep, default 3), --out=FILE (default bench/RESULTS.md: a partial run
  * with --only or --skip should write elsewhere).
  * External references are used when present and never installed here: MUMPS from Debian (apt-get install -y
@@ -27,6 +28,7 @@ import { readScenario } from '../engine/scenario/index.ts';
 import { prepareScenario } from '../engine/solve/scenario.ts';
 import { chamberScenario, FACTOR_CASES, type DuctCase } from './scenarios.ts';
 import { buildMumps, runMumps, mumpsTotal, mumpsCpu, MUMPS_ORDERINGS, REAL_FLOPS_PER_MUMPS_FLOP, type MumpsRun } from './mumps.ts';
+import { splitterBench } from './waveguide-splitter.ts';
 
 const root = fileURLToPath(new URL('..', import.meta.url));
 /** This process's resident set before any case: Node, tsx and the engine's modules, what every child process also carries. */
@@ -409,6 +411,13 @@ if (!skip.has('largest')) {
   if (best) say(`Largest solved within 8 GiB: a ${fmt(best.L, 1)} m chamber, ${best.dofs} dofs, peak ${mb(best.peakBytes)} MiB.`);
   else say(`No chamber was solved within 8 GiB here${failure ? ` (the solve failed: ${failure})` : ''}.`);
   say();
+}
+
+// ---- 7: a splitter silencer by waveguide sections, no 3D mesh ----
+if (!skip.has('waveguide')) {
+  say('## 7. A splitter silencer by waveguide sections (octave bands 63 Hz – 8 kHz, no 3D mesh)');
+  say();
+  for (const line of await splitterBench(2, 3)) say(line);
 }
 
 say(`Load average at the end: ${loadavg().map((x) => x.toFixed(2)).join(', ')}.`);
