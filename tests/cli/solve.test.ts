@@ -7,6 +7,7 @@ import { readScenario, type NormalisedScenario } from '../../engine/scenario/ind
 import { bandIndexOf } from '../../engine/acoustics/index.ts';
 import { parseCsv } from '../../engine/report/index.ts';
 import { ROOT, pickFrequencies, quietgrid, scenarioFiles } from './helpers.ts';
+import { folderDifferences } from './numbers.ts';
 
 let tmp: string;
 beforeAll(() => { tmp = mkdtempSync(join(tmpdir(), 'quietgrid-cli-')); });
@@ -105,11 +106,13 @@ function checkSummary(s: NormalisedScenario, dir: string, freqs: number[]): void
   expect(summary.accuracy.orderCheckedHz).toEqual([]);
 }
 
+const stem = (file: string) => file.replace(/^scenarios\//, '').replace(/\.json$/, '');
+
 describe.each(scenarioFiles())('quietgrid solve %s', (file) => {
-  it('writes spectrum.csv, bands.csv and summary.json that read back', async () => {
-    const s = load(file), freqs = pickFrequencies(s.sweep.frequenciesHz), dir = join(tmp, file.replace(/\W/g, '_'));
-    // the order check has tests of its own below: here each demo is solved once
-    const run = await quietgrid('solve', file, '--out', dir, '--frequencies', freqs.join(','), '--no-check-order');
+  it('writes spectrum.csv, bands.csv and summary.json that read back, with the numbers stored before the sweep engine', async () => {
+    const s = load(file), freqs = [...s.sweep.frequenciesHz], dir = join(tmp, file.replace(/\W/g, '_'));
+    // the order check has tests of its own below: here each demo's whole sweep is solved once
+    const run = await quietgrid('solve', file, '--out', dir, '--no-check-order');
     expect(run.stderr).not.toMatch(/FAILED/);
     expect(run.code, run.stderr).toBe(0);
     expect(run.stdout).toMatch(/Mesh: order \d+, \d+ elements, \d+ dofs, \d+ absorbing layers/);
@@ -119,6 +122,16 @@ describe.each(scenarioFiles())('quietgrid solve %s', (file) => {
     checkSpectrum(s, dir, freqs);
     checkBands(s, dir, freqs);
     checkSummary(s, dir, freqs);
+    expect(folderDifferences(stem(file), dir)).toEqual([]);
+  });
+});
+
+describe('quietgrid solve with the default order check', () => {
+  it.each(['scenarios/plant-room-supply-silencer.json', 'scenarios/generator-room-small.json'])('%s prints the numbers stored before the sweep engine', async (file) => {
+    const dir = join(tmp, `checked-${stem(file)}`);
+    const run = await quietgrid('solve', file, '--out', dir);
+    expect(run.code, run.stderr).toBe(0);
+    expect(folderDifferences(`${stem(file)}-checked`, dir)).toEqual([]);
   });
 });
 

@@ -1,19 +1,23 @@
-// quietgrid verify as a user runs it. The full suite (about a minute on two cores, most of it the monopole
-// group) runs from the command line; here every group but the monopole, and the options.
+// quietgrid verify as a user runs it: the whole suite once (about a minute on two cores, most of it the
+// monopole group), against the rows stored before the sweep engine, and the options.
 import { describe, expect, it } from 'vitest';
+import { readFileSync } from 'node:fs';
+import { join } from 'node:path';
 import { quietgrid } from './helpers.ts';
+import { NUMBERS, jsonDifferences } from './numbers.ts';
 
 interface Row { case: string; source: string; tolerance: string; value: number; shown: string; pass: boolean }
 
 describe('quietgrid verify', () => {
-  it('--json: exit 0, every row passes and names its source and tolerance', async () => {
-    const run = await quietgrid('verify', '--json', '--only', 'outgoing,pade,duct,porous');
+  it('--json: exit 0, every row passes, names its source and tolerance, and prints what it printed before the sweep engine', async () => {
+    const run = await quietgrid('verify', '--json');
     expect(run.code, run.stderr).toBe(0);
     const report = JSON.parse(run.stdout) as { pass: boolean; tables: { id: string; rows: Row[] }[] };
     expect(report.pass).toBe(true);
-    expect(report.tables.map((t) => t.id)).toEqual(['outgoing', 'pade', 'duct', 'porous']);
+    expect(report.tables.map((t) => t.id)).toEqual(['outgoing', 'pade', 'monopole', 'duct', 'porous']);
+    expect(jsonDifferences(JSON.parse(readFileSync(join(NUMBERS, 'verify.json'), 'utf8')), report)).toEqual([]);
     const rows = report.tables.flatMap((t) => t.rows);
-    expect(rows.length).toBeGreaterThan(30);
+    expect(rows.length).toBeGreaterThan(40);
     for (const r of rows) {
       expect(r.pass, `${r.case}: ${r.shown} (${r.tolerance})`).toBe(true);
       expect(r.source.length).toBeGreaterThan(5);
