@@ -3,7 +3,7 @@
 // cut-on die away. Modes cos(mπy/a)·cos(nπz/b), Morse & Ingard, Theoretical
 // Acoustics (1968), on sound in ducts.
 import { requireCount, requireNonNegative, requirePositive } from './checks.ts';
-import type { Complex } from './complex.ts';
+import type { Complex } from '../core/complex.ts';
 
 export interface DuctMode {
   m: number;
@@ -50,9 +50,10 @@ export function firstCutOn(a: number, b: number, c: number): number {
 }
 
 /**
- * Axial wavenumber of mode (m, n) at wavenumber k: √(k² − (mπ/a)² − (nπ/b)²)
+ * Axial wavenumber of mode (m, n) at wavenumber k: √(k² − k_t²), k_t² = (mπ/a)² + (nπ/b)²,
  * above cut-on, −j·κ below it. With e^{+jωt} the mode travels as e^{−j·kx·x},
- * so −jκ gives the decaying e^{−κx}.
+ * so −jκ gives the decaying e^{−κx}. The one wavenumber of a rigid rectangular duct's modes: the
+ * solver's incident wave, its absorbing-layer range and reflection estimate all use it.
  */
 export function axialWavenumber(k: number, a: number, b: number, m: number, n: number): Complex {
   requireNonNegative('k', k);
@@ -60,7 +61,7 @@ export function axialWavenumber(k: number, a: number, b: number, m: number, n: n
   requirePositive('b', b);
   requireCount('m', m, 0);
   requireCount('n', n, 0);
-  const kx2 = k * k - ((m * Math.PI) / a) ** 2 - ((n * Math.PI) / b) ** 2;
+  const kt2 = ((m * Math.PI) / a) ** 2 + ((n * Math.PI) / b) ** 2, kx2 = k * k - kt2;
   return kx2 >= 0 ? { re: Math.sqrt(kx2), im: 0 } : { re: 0, im: -Math.sqrt(-kx2) };
 }
 

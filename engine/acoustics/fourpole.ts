@@ -1,7 +1,7 @@
 // Four-pole (transfer) matrices of one-dimensional acoustics, Munjal,
 // Acoustics of Ducts and Mufflers (1987): [p₁; U₁] = T·[p₂; U₂] with acoustic
 // pressure p and volume velocity U, upstream state on the left, e^{+jωt}.
-import { add, cx, mul, ONE, sub, ZERO, type Complex } from './complex.ts';
+import { add, cx, mul, ONE, sub, ZERO, type Complex } from '../core/complex.ts';
 
 export interface FourPole {
   t11: Complex;

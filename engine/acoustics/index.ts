@@ -7,7 +7,6 @@ export * from './weighting.ts';
 export * from './decibels.ts';
 export * from './aggregate.ts';
 export * from './cuton.ts';
-export type { Complex } from './complex.ts';
 export * from './fourpole.ts';
 export * from './planewave.ts';
 export * from './planewaveClosedForms.ts';

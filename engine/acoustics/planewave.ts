@@ -2,7 +2,7 @@
 // four-poles, Munjal, Acoustics of Ducts and Mufflers (1987). Valid below the
 // first cut-on frequency (cuton.ts); the 3D solver is the reference above it.
 import { requireNonNegative, requirePositive } from './checks.ts';
-import { abs, add, cx, div, mul, scale, sub, type Complex } from './complex.ts';
+import { abs, add, cx, div, mul, scale, sub, type Complex } from '../core/complex.ts';
 import {
   ductFourPole,
   IDENTITY_FOUR_POLE,

@@ -17,7 +17,7 @@
  *   far further down than with Delany & Bazley's form, which turns non-physical soon below it (though
  *   not for all f·d: very thin layers at f/σ ≲ 10⁻³ go wrong with either).
  */
-import { abs, add, cx, div, mul, scale, sub, type Complex } from './complex.ts';
+import { abs, add, cx, div, mul, scale, sub, type Complex } from '../core/complex.ts';
 import { requirePositive } from './checks.ts';
 
 export type PorousModel = 'delany-bazley' | 'miki';

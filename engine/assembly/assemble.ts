@@ -7,6 +7,7 @@ import type { ComplexCsr, ComplexVector, SparsePattern } from '../linalg/sparse.
 import type { Mesh } from '../grid/mesh.ts';
 import { element1D, elementWork, kroneckerElement, type Matrix1D } from '../fe/element.ts';
 import type { AxisStretch } from '../fe/stretch.ts';
+import type { Complex } from '../core/complex.ts';
 
 export interface AssemblyPattern {
   pattern: SparsePattern;
@@ -63,8 +64,8 @@ export function symbolicAssembly(mesh: Mesh): AssemblyPattern {
 
 /** Per-element material: 1/ρ and 1/κ (complex for equivalent fluids), as indices into a small table. */
 export interface Materials {
-  rhoInv: { re: number; im: number }[];
-  kappaInv: { re: number; im: number }[];
+  rhoInv: Complex[];
+  kappaInv: Complex[];
   ofElement: Int32Array; // nElements
 }
 

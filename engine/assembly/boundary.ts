@@ -9,13 +9,13 @@ import type { Mesh } from '../grid/mesh.ts';
 import type { AssemblyPattern } from './assemble.ts';
 import { element1D } from '../fe/element.ts';
 import { NO_STRETCH } from '../fe/stretch.ts';
-import type { Side } from '../grid/grid.ts';
-import { sideAxis, sideSign } from '../grid/grid.ts';
+import type { Complex } from '../core/complex.ts';
+import { sideAxis, sideSign, type Side } from '../core/space.ts';
 
 export interface SurfaceFace {
   element: number; // index into mesh.elements
   side: Side; // which face of the element
-  admittance: { re: number; im: number }; // 1/Z_s, m²·s/kg
+  admittance: Complex; // 1/Z_s, m²·s/kg
 }
 
 /** Element faces on the boundary of the air on `side` whose centre satisfies `where`. */
@@ -56,7 +56,7 @@ export function addSurfaceAdmittance(A: ComplexCsr, mesh: Mesh, sym: AssemblyPat
 }
 
 /** Specific admittance 1/Z_s from a normal-incidence absorption coefficient (real impedance ratio, common practice) or a normalised impedance ζ = Z_s/(ρc). */
-export function surfaceAdmittance(spec: { absorption: number } | { impedance: [number, number] }, rhoC: number): { re: number; im: number } {
+export function surfaceAdmittance(spec: { absorption: number } | { impedance: [number, number] }, rhoC: number): Complex {
   let zr: number, zi: number;
   if ('absorption' in spec) {
     const r = Math.sqrt(1 - spec.absorption);

@@ -2,6 +2,24 @@
  * Absorbing layers: which stretch each layer cell gets at a given wavenumber, and what the discrete
  * layers are predicted to reflect.
  *
+ * Vocabulary. The grid (engine/grid/grid.ts) adds `layers` cells beyond every face of the bounding box
+ * that has an opening. A cell lies in the layers along an axis when its index on that axis is outside
+ * the physical range (GridAxis.layerSide ≠ 0), and each such axis is stretched; the cell is named by how
+ * many axes are stretched (`layerCellKind`):
+ *
+ *        ┌───┬───────────┬───┐    interior  no axis stretched: the physical air, s = 1
+ *        │ C │     F     │ C │    face      one axis: the layer in front of an opening
+ *        ├───┼───────────┼───┤    edge      two axes: where the layers of two open faces meet
+ *        │ F │ interior  │ F │    corner    three axes: where three open faces meet (a room's open
+ *        ├───┼───────────┼───┤              corner); a corner cell is a cell with three stretched axes
+ *        │ C │     F     │ C │
+ *        └───┴───────────┴───┘    (a cut normal to z through an open room: F face, C edge cells;
+ *                                  the same cut inside a z layer shows edge and corner cells)
+ *
+ * Every kind is assembled by the same element integrator (engine/fe/element.ts), which takes one stretch
+ * per axis (AxisStretch, engine/fe/stretch.ts): an unstretched axis passes s = 1. So a face cell differs
+ * from a corner cell only in how many of its three stretches are not 1.
+ *
  * Discrete layers (constant stretch per layer element, p-point Gauss rule along the stretched axis): L layer
  * elements of complex lengths L̃_j ending on a rigid wall reflect a wave of normal wavenumber k_x by
  *     R(k_x) = ∏_j [P_p(z_j) / P_p(−z_j)]²,  z_j = −j·k_x·L̃_j,
@@ -13,10 +31,9 @@
  */
 import type { AxisStretch } from '../fe/stretch.ts';
 import type { Grid } from '../grid/grid.ts';
+import type { Complex } from '../core/complex.ts';
 
 export type AbsorberKind = 'discrete' | 'constant' | 'smooth';
-
-export interface Complex { re: number; im: number }
 
 function padeCoefficients(p: number): number[] {
   const f = (n: number) => { let r = 1; for (let i = 2; i <= n; i++) r *= i; return r; };
@@ -163,6 +180,22 @@ export function nelderMead(f: (x: number[]) => number, x0: number[], maxEval: nu
   }
   const i0 = values.indexOf(Math.min(...values));
   return { x: simplex[i0], f: values[i0] };
+}
+
+export type LayerCellKind = 'interior' | 'face' | 'edge' | 'corner';
+const KINDS: readonly LayerCellKind[] = ['interior', 'face', 'edge', 'corner'];
+
+/** What a grid cell is, by the number of its stretched axes (see the vocabulary above). */
+export function layerCellKind(grid: Grid, cell: number): LayerCellKind {
+  const [nx, ny] = grid.dims, ijk = [cell % nx, Math.floor(cell / nx) % ny, Math.floor(cell / (nx * ny))];
+  return KINDS[ijk.filter((v, d) => grid.axes[d].layerSide[v] !== 0).length];
+}
+
+/** How many air cells of each kind the grid has. */
+export function layerCellCounts(grid: Grid): Record<LayerCellKind, number> {
+  const out: Record<LayerCellKind, number> = { interior: 0, face: 0, edge: 0, corner: 0 };
+  for (let c = 0; c < grid.air.length; c++) if (grid.air[c]) out[layerCellKind(grid, c)]++;
+  return out;
 }
 
 export interface AbsorberOptions {

@@ -7,6 +7,7 @@ import type { ComplexVector } from '../linalg/sparse.ts';
 import type { Mesh } from '../grid/mesh.ts';
 import { tabulate } from '../fe/basis.ts';
 import { gaussLegendre } from '../fe/quadrature.ts';
+import type { Complex } from '../core/complex.ts';
 
 /** The air element holding a point, with the point's reference coordinates in it; null if in no air cell. */
 export function locate(mesh: Mesh, x: number, y: number, z: number): { element: number; xi: [number, number, number] } | null {
@@ -42,7 +43,7 @@ export function basisAt(p: number, xi: [number, number, number]): Float64Array {
 }
 
 /** Adds amplitude·φ_i(x₀) to b (amplitude = jωQ for a monopole of volume velocity Q). */
-export function addPointLoad(mesh: Mesh, point: [number, number, number], amplitude: { re: number; im: number }, b: ComplexVector): void {
+export function addPointLoad(mesh: Mesh, point: [number, number, number], amplitude: Complex, b: ComplexVector): void {
   const hit = locate(mesh, ...point);
   if (!hit) throw new Error(`the point (${point.join(', ')}) m lies in no air cell`);
   const phi = basisAt(mesh.order, hit.xi), n3 = phi.length, dofs = mesh.numbering.elementDofs;
@@ -54,7 +55,7 @@ export function addPointLoad(mesh: Mesh, point: [number, number, number], amplit
 }
 
 /** Interpolates a nodal field at a point. */
-export function evaluateAt(mesh: Mesh, u: ComplexVector, point: [number, number, number]): { re: number; im: number } {
+export function evaluateAt(mesh: Mesh, u: ComplexVector, point: [number, number, number]): Complex {
   const hit = locate(mesh, ...point);
   if (!hit) throw new Error(`the point (${point.join(', ')}) m lies in no air cell`);
   const phi = basisAt(mesh.order, hit.xi), n3 = phi.length, dofs = mesh.numbering.elementDofs;
@@ -71,7 +72,7 @@ export function evaluateAt(mesh: Mesh, u: ComplexVector, point: [number, number,
  * ∫ f φ_i dV over the given elements (all by default), f real or complex, with a (p+2)-point Gauss rule per
  * axis; `integrate` also returns ∫ g(u_h, x) dV for error norms when given.
  */
-export function addBodyLoad(mesh: Mesh, f: (x: number, y: number, z: number) => { re: number; im: number }, b: ComplexVector): void {
+export function addBodyLoad(mesh: Mesh, f: (x: number, y: number, z: number) => Complex, b: ComplexVector): void {
   forEachQuadraturePoint(mesh, (e, x, y, z, wt, phi) => {
     const v = f(x, y, z), n3 = phi.length, dofs = mesh.numbering.elementDofs;
     for (let I = 0; I < n3; I++) {

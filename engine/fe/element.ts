@@ -5,6 +5,8 @@
  * 1D factors per axis:  K_ab = ∫ (1/s) φ_a' φ_b' dx,  M_ab = ∫ s φ_a φ_b dx, each with the axis's own rule.
  * 3D matrix:            A = c₁ (K_x⊗M_y⊗M_z + M_x⊗K_y⊗M_z + M_x⊗M_y⊗K_z) − c₂ M_x⊗M_y⊗M_z,
  * with local index I = a + n(b + n c), n = p + 1 (a along x). Every array here is complex, split re/im.
+ * One integrator for every cell: an interior cell has s = 1 on all three axes, an absorbing-layer cell a
+ * stretch on one (face), two (edge) or three (corner) axes (the vocabulary: engine/assembly/layers.ts).
  */
 import { tabulate } from './basis.ts';
 import { ruleFor, stretchAt, type AxisStretch } from './stretch.ts';

@@ -6,8 +6,9 @@
  */
 import { tabulate } from './basis.ts';
 import { ruleFor, stretchAt, type AxisStretch } from './stretch.ts';
+import type { Complex } from '../core/complex.ts';
 
-export function quadratureElement(p: number, lo: [number, number, number], hi: [number, number, number], st: [AxisStretch, AxisStretch, AxisStretch], c1: { re: number; im: number }, c2: { re: number; im: number }): { re: Float64Array; im: Float64Array } {
+export function quadratureElement(p: number, lo: [number, number, number], hi: [number, number, number], st: [AxisStretch, AxisStretch, AxisStretch], c1: Complex, c2: Complex): { re: Float64Array; im: Float64Array } {
   const n = p + 1, n3 = n * n * n;
   const rules = st.map((s) => ruleFor(s, p)), tabs = rules.map((r) => tabulate(p, r.points));
   const h = [0, 1, 2].map((d) => hi[d] - lo[d]);

@@ -12,6 +12,7 @@
  *             Phys. 114, 1994, with a real part for evanescent waves), full rule.
  */
 import { gaussLegendre, type Rule } from './quadrature.ts';
+import type { Complex } from '../core/complex.ts';
 
 export type AxisStretch =
   | { kind: 'none' }
@@ -41,7 +42,7 @@ export function stretchAt(st: AxisStretch, x: number, out: Float64Array): void {
 }
 
 /** ∫ s dx over [x0, x1]: the complex length the element contributes along this axis. */
-export function complexLength(st: AxisStretch, x0: number, x1: number): { re: number; im: number } {
+export function complexLength(st: AxisStretch, x0: number, x1: number): Complex {
   const rule = gaussLegendre(8), s = new Float64Array(2);
   let re = 0, im = 0;
   const half = 0.5 * (x1 - x0), mid = 0.5 * (x0 + x1);

@@ -9,16 +9,14 @@
  * lies against an opening on every side it was pushed out of: face layers stretch one axis, edge layers
  * two, corner layers three.
  */
-export type Side = '-x' | '+x' | '-y' | '+y' | '-z' | '+z';
+import { sideAxis, sideSign, SNAP_TOLERANCE, type Box, type FaceRect, type Side } from '../core/space.ts';
 
-export interface AirBox { x0: number; x1: number; y0: number; y1: number; z0: number; z1: number }
-
-/** A rectangle on a face of the bounding box through which air continues without end (a, b: the two other axes in x, y, z order). */
-export interface GridOpening { side: Side; rect: { a0: number; a1: number; b0: number; b1: number } }
+/** A rectangle on a face of the bounding box through which air continues without end. */
+export interface GridOpening { side: Side; rect: FaceRect }
 
 export interface GridSpec {
   order: number;
-  boxes: AirBox[];
+  boxes: Box[];
   openings: GridOpening[];
   maxElementSize: number; // m, from the points-per-wavelength rule at the top frequency
   layerCount: number; // layer elements on each side with an opening
@@ -42,11 +40,7 @@ export interface Grid {
   box: Int16Array; // nCells: index of the air box a physical cell lies in (−1 otherwise); layer cells take their projection's
 }
 
-export const SIDES: Side[] = ['-x', '+x', '-y', '+y', '-z', '+z'];
-export function sideAxis(s: Side): 0 | 1 | 2 { return s[1] === 'x' ? 0 : s[1] === 'y' ? 1 : 2; }
-export function sideSign(s: Side): -1 | 1 { return s[0] === '-' ? -1 : 1; }
-
-const SNAP = 1e-9;
+const SNAP = SNAP_TOLERANCE;
 
 function uniqueSorted(values: number[]): number[] {
   const v = values.filter(Number.isFinite).sort((a, b) => a - b), out: number[] = [];
@@ -110,7 +104,7 @@ export function buildGrid(spec: GridSpec): Grid {
   return { order: spec.order, axes, dims, air, box };
 }
 
-function physicalBoxes(boxes: AirBox[], axes: GridAxis[]): (i: number, j: number, k: number) => number {
+function physicalBoxes(boxes: Box[], axes: GridAxis[]): (i: number, j: number, k: number) => number {
   const mid = (d: number, i: number) => 0.5 * (axes[d].nodes[i] + axes[d].nodes[i + 1]);
   return (i, j, k) => {
     const x = mid(0, i), y = mid(1, j), z = mid(2, k);
@@ -127,9 +121,4 @@ function againstOpening(openings: GridOpening[], axes: GridAxis[], proj: number[
 
 export function cellIndex(g: Grid, i: number, j: number, k: number): number {
   return i + g.dims[0] * (j + g.dims[1] * k);
-}
-
-/** Element size so that an order-p element of that size carries `pointsPerWavelength` nodes per wavelength λ. */
-export function maxElementSize(order: number, wavelength: number, pointsPerWavelength: number): number {
-  return (order * wavelength) / pointsPerWavelength;
 }

@@ -3,6 +3,8 @@
  * Both triangles are stored, column indices sorted within each row, the diagonal always present:
  * the assembler fills it that way and the factorisation reads whichever half it needs.
  */
+import type { ComplexVector } from '../core/complex.ts';
+
 export interface SparsePattern {
   n: number;
   rowPtr: Int32Array; // n + 1
@@ -14,10 +16,7 @@ export interface ComplexCsr extends SparsePattern {
   im: Float64Array; // nnz
 }
 
-export interface ComplexVector {
-  re: Float64Array;
-  im: Float64Array;
-}
+export type { ComplexVector };
 
 export function zeroVector(n: number): ComplexVector {
   return { re: new Float64Array(n), im: new Float64Array(n) };

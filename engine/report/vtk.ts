@@ -7,6 +7,8 @@
  * An order-p element is written as its p³ linear sub-hexahedra between neighbouring nodes, so a
  * reader that knows only linear cells still shows the field at every node the solver computed.
  */
+import type { ComplexVector } from '../core/complex.ts';
+import { splDb } from '../core/levels.ts';
 
 /** What the writer needs of a mesh (engine/grid's Mesh fits it). */
 export interface VtkMesh {
@@ -23,14 +25,13 @@ export interface VtuOptions {
 }
 
 export const VTK_HEXAHEDRON = 12;
-const P_REF = 20e-6;
 // An ASCII VTK reader cannot read −inf: a node of zero pressure gets this level instead.
 const SPL_FLOOR_DB = -100;
 // Sub-hex corners (a, b, c offsets) in VTK_HEXAHEDRON order.
 const CORNERS = [[0, 0, 0], [1, 0, 0], [1, 1, 0], [0, 1, 0], [0, 0, 1], [1, 0, 1], [1, 1, 1], [0, 1, 1]];
 
 /** The field `re + j·im` (peak Pa at each dof) on the dofs at `xyz` (triples, m) as .vtu text. */
-export function fieldToVtu(mesh: VtkMesh, xyz: Float64Array, field: { re: Float64Array; im: Float64Array }, opts: VtuOptions = {}): string {
+export function fieldToVtu(mesh: VtkMesh, xyz: Float64Array, field: ComplexVector, opts: VtuOptions = {}): string {
   const ndofs = mesh.numbering.ndofs;
   if (xyz.length !== 3 * ndofs || field.re.length !== ndofs || field.im.length !== ndofs) {
     throw new RangeError(`fieldToVtu: ${ndofs} dofs, but ${xyz.length / 3} coordinates and ${field.re.length} field values`);
@@ -72,11 +73,11 @@ function usedPoints(cells: Int32Array, ndofs: number): { points: Int32Array; loc
   return { points, local };
 }
 
-function document(xyz: Float64Array, field: { re: Float64Array; im: Float64Array }, points: Int32Array, cells: Int32Array, frequencyHz?: number): string {
+function document(xyz: Float64Array, field: ComplexVector, points: Int32Array, cells: Int32Array, frequencyHz?: number): string {
   const nCells = cells.length / 8;
   const pick = (f: (d: number) => number) => Array.from(points, f);
   const abs = (d: number) => Math.hypot(field.re[d], field.im[d]);
-  const spl = (d: number) => (abs(d) > 0 ? Math.max(SPL_FLOOR_DB, 20 * Math.log10(abs(d) / Math.SQRT2 / P_REF)) : SPL_FLOOR_DB);
+  const spl = (d: number) => (abs(d) > 0 ? Math.max(SPL_FLOOR_DB, splDb(abs(d))) : SPL_FLOOR_DB);
   const coords = new Array<string>(points.length);
   for (let i = 0; i < points.length; i++) coords[i] = `${num(xyz[3 * points[i]])} ${num(xyz[3 * points[i] + 1])} ${num(xyz[3 * points[i] + 2])}`;
   const offsets = Array.from({ length: nCells }, (_, c) => 8 * (c + 1));

@@ -3,10 +3,11 @@
  * (offsetY, offsetZ); a branch as a box standing out of its section's wall. The validator checks
  * these boxes and the geometry hands them to the mesher, so both see the same duct.
  */
-import type { Axis, Box } from './box.ts';
+import type { Axis } from '../core/space.ts';
+import type { TaggedBox } from './box.ts';
 import type { BranchSide, NormalisedBranch, NormalisedSection } from './types.ts';
 
-export function layOutSections(sections: readonly NormalisedSection[]): Box[] {
+export function layOutSections(sections: readonly NormalisedSection[]): TaggedBox[] {
   let x = 0;
   return sections.map((s) => {
     const box = {
@@ -35,7 +36,7 @@ export function wallSpan(side: BranchSide, section: NormalisedSection): { axis: 
     : { axis: 'y', size: section.width, centre: section.offsetY };
 }
 
-export function layOutBranch(branch: NormalisedBranch, section: NormalisedSection, sectionBox: Box): Box {
+export function layOutBranch(branch: NormalisedBranch, section: NormalisedSection, sectionBox: TaggedBox): TaggedBox {
   const xc = sectionBox.x0 + branch.at;
   const { axis, sign } = sideAxis(branch.side);
   const span = wallSpan(branch.side, section);

@@ -5,7 +5,8 @@
  */
 import { cutOnFrequency } from '../acoustics/index.ts';
 import { item, type Checker } from './checker.ts';
-import { boxesMeet, lower, overlapAlong, SNAP_TOLERANCE, upper, type Box } from './box.ts';
+import { boxesMeet, lower, overlapAlong, SNAP_TOLERANCE, upper } from '../core/space.ts';
+import type { TaggedBox } from './box.ts';
 import { layOutBranch, layOutSections, sideAxis, wallSpan } from './duct-layout.ts';
 import { num } from './issues.ts';
 import { didYouMean } from './suggest.ts';
@@ -24,7 +25,7 @@ export interface DuctContext {
 interface PlacedBranch {
   branch: NormalisedBranch;
   index: number;
-  box: Box;
+  box: TaggedBox;
   sectionIndex: number;
 }
 
@@ -49,14 +50,14 @@ function checkUniqueNames(ck: Checker, sections: NormalisedSection[], branches: 
   branches.forEach((b, i) => b !== undefined && note(b.name, `${item('duct.branches', i)}.name`));
 }
 
-function checkConnected(ck: Checker, sections: NormalisedSection[], boxes: Box[]): void {
+function checkConnected(ck: Checker, sections: NormalisedSection[], boxes: TaggedBox[]): void {
   for (let i = 1; i < boxes.length; i++) {
     const a = boxes[i - 1], b = boxes[i];
     const apartY = overlapAlong(a, b, 'y') <= TOL, apartZ = overlapAlong(a, b, 'z') <= TOL;
     if (!apartY && !apartZ) continue;
     const key = apartY ? 'offsetY' : 'offsetZ';
     const axis = apartY ? 'y' : 'z';
-    const range = (box: Box) => `${axis} ${num(lower(box, axis))}…${num(upper(box, axis))} m`;
+    const range = (box: TaggedBox) => `${axis} ${num(lower(box, axis))}…${num(upper(box, axis))} m`;
     ck.error(`${item('duct.sections', i)}.${key}`, sections[i][key], 'sections-connected',
       `sections "${a.tag}" and "${b.tag}" do not connect: their cross-sections do not overlap (${range(a)} against ${range(b)}), so the duct is cut in two`,
       `change ${key} of "${b.tag}" (or its ${apartY ? 'width' : 'height'}) so that its cross-section overlaps that of "${a.tag}"`);
@@ -64,7 +65,7 @@ function checkConnected(ck: Checker, sections: NormalisedSection[], boxes: Box[]
 }
 
 /** Branches on a known section, inside its length and on its wall; the others are reported and dropped. */
-function placeBranches(ck: Checker, sections: NormalisedSection[], boxes: Box[], branches: (NormalisedBranch | undefined)[]): PlacedBranch[] {
+function placeBranches(ck: Checker, sections: NormalisedSection[], boxes: TaggedBox[], branches: (NormalisedBranch | undefined)[]): PlacedBranch[] {
   const placed: PlacedBranch[] = [];
   branches.forEach((branch, index) => {
     if (branch === undefined) return;
@@ -112,7 +113,7 @@ function fitsAcross(ck: Checker, branch: NormalisedBranch, section: NormalisedSe
 }
 
 /** A branch touches nothing but its own section: any other contact would be an air path the duct does not have. */
-function checkClearance(ck: Checker, placed: PlacedBranch[], boxes: Box[], sections: NormalisedSection[]): void {
+function checkClearance(ck: Checker, placed: PlacedBranch[], boxes: TaggedBox[], sections: NormalisedSection[]): void {
   placed.forEach((p, k) => {
     const path = `${item('duct.branches', p.index)}.at`;
     boxes.forEach((box, s) => {
@@ -139,13 +140,13 @@ function shiftFix(p: PlacedBranch, q: PlacedBranch): string {
 }
 
 /** An open end's absorbing layer extends outward from the bounding box: nothing may stand beyond it. */
-function checkOpenEnds(ck: Checker, placed: PlacedBranch[], boxes: Box[]): void {
+function checkOpenEnds(ck: Checker, placed: PlacedBranch[], boxes: TaggedBox[]): void {
   const all = [...boxes, ...placed.map((p) => p.box)];
   for (const p of placed) {
     if (p.branch.end !== 'open') continue;
     const { axis, sign } = sideAxis(p.branch.side);
     const endAt = sign > 0 ? upper(p.box, axis) : lower(p.box, axis);
-    const reach = (b: Box) => sign * ((sign > 0 ? upper(b, axis) : lower(b, axis)) - endAt);
+    const reach = (b: TaggedBox) => sign * ((sign > 0 ? upper(b, axis) : lower(b, axis)) - endAt);
     const beyond = all.filter((b) => b !== p.box && reach(b) > TOL).sort((a, b) => reach(b) - reach(a))[0];
     if (beyond === undefined) continue;
     ck.error(`${item('duct.branches', p.index)}.end`, 'open', 'open-end-outermost',

@@ -4,13 +4,13 @@
  * scenarios/schema.json against `SCENARIO_FIELDS`, so the file and the code cannot drift apart.
  */
 import { LINING_MATERIAL_IDS, POROUS_MODELS } from '../acoustics/index.ts';
-import type { AbsorberKind, BranchEnd, BranchSide, LiningModel, Side, Spacing, WallKey } from './types.ts';
+import { SIDES, WALL_KEYS } from '../core/space.ts';
+import type { AbsorberKind, BranchEnd, BranchSide, LiningModel, Spacing } from './types.ts';
 
 export const READABLE_FORMATS: readonly string[] = ['quietgrid/1'];
 
-export const SIDES: readonly Side[] = ['-x', '+x', '-y', '+y', '-z', '+z'];
 export const BRANCH_SIDES: readonly BranchSide[] = ['+y', '-y', '+z', '-z'];
-export const WALL_KEYS: readonly WallKey[] = ['x-', 'x+', 'y-', 'y+', 'z-', 'z+'];
+
 export const SPACINGS: readonly Spacing[] = ['octave', 'third-octave', 'linear', 'log'];
 export const BAND_SPACINGS: readonly Spacing[] = ['octave', 'third-octave'];
 export const ABSORBER_KINDS: readonly AbsorberKind[] = ['discrete', 'constant', 'smooth'];

@@ -9,7 +9,8 @@
  * shorter than the air's at the mesh's density (lining-slices.ts). So the boxes depend on the mesh
  * settings and the sweep as well as on the duct.
  */
-import { boundingBox, type Box } from './box.ts';
+import { crossSectionOf, faceRect, wallSide, WALL_KEYS, type CrossSection, type FaceRect } from '../core/space.ts';
+import { boundingBox, type TaggedBox } from './box.ts';
 import { layOutBranch, layOutSections } from './duct-layout.ts';
 import { layOutLinings, type LiningSlab } from './lining-layout.ts';
 import { airElementSize, liningCuts, liningElementSize, sliceBox } from './lining-slices.ts';
@@ -18,20 +19,14 @@ import type {
   BranchEnd, BranchSide, LiningModel, NormalisedDuctScenario, NormalisedRoomScenario, NormalisedScenario, ReceiverInput, RoomSourceInput,
   Side, Termination, WallCondition, WallKey,
 } from './types.ts';
-import { WALL_KEYS } from './fields.ts';
 
-export type { Box } from './box.ts';
+export type { TaggedBox } from './box.ts';
 
-/** A rectangle in the two axes other than the normal, in x, y, z order (for ±x: a = y, b = z). */
-export interface Rect { a0: number; a1: number; b0: number; b1: number }
-
-export interface Opening { side: Side; rect: Rect; name: string }
-
-export interface CrossSection { y0: number; y1: number; z0: number; z1: number }
+export interface Opening { side: Side; rect: FaceRect; name: string }
 
 export interface SectionLayout extends CrossSection { name: string; x0: number; x1: number; width: number; height: number }
 
-export interface BranchLayout { name: string; section: string; side: BranchSide; end: BranchEnd; box: Box }
+export interface BranchLayout { name: string; section: string; side: BranchSide; end: BranchEnd; box: TaggedBox }
 
 export interface DuctPorts {
   /** x up to which the inlet section is a straight uniform unlined duct: the first branch edge or lining, or the section end. */
@@ -67,17 +62,17 @@ export interface LiningLayout {
   library: string | null;
   boxes: number[];
   /** The slab's bounding box. */
-  region: Box;
+  region: TaggedBox;
   /** Largest element edge the material calls for at the mesh's density, m; null when the air's grading is already finer. */
   elementSize: number | null;
 }
 
 export interface Geometry {
   kind: 'duct' | 'room';
-  boxes: Box[];
+  boxes: TaggedBox[];
   /** The lined faces; empty for a room and for an unlined duct. */
   linings: LiningLayout[];
-  bounds: Box;
+  bounds: TaggedBox;
   openings: Opening[];
   /** Sorted unique coordinates of every box face, per axis. */
   breakpoints: { x: number[]; y: number[]; z: number[] };
@@ -91,7 +86,7 @@ export function buildGeometry(scenario: NormalisedScenario): Geometry {
   return scenario.kind === 'duct' ? ductGeometry(scenario) : roomGeometry(scenario);
 }
 
-function snapsFor(boxes: readonly Box[]): Snap {
+function snapsFor(boxes: readonly TaggedBox[]): Snap {
   return {
     x: snapper(boxes.flatMap((b) => [b.x0, b.x1])),
     y: snapper(boxes.flatMap((b) => [b.y0, b.y1])),
@@ -99,28 +94,16 @@ function snapsFor(boxes: readonly Box[]): Snap {
   };
 }
 
-function snapBox(box: Box, s: Snap): Box {
+function snapBox(box: TaggedBox, s: Snap): TaggedBox {
   return { x0: s.x(box.x0), x1: s.x(box.x1), y0: s.y(box.y0), y1: s.y(box.y1), z0: s.z(box.z0), z1: s.z(box.z1), tag: box.tag };
 }
 
-function breakpointsOf(boxes: readonly Box[]): Geometry['breakpoints'] {
+function breakpointsOf(boxes: readonly TaggedBox[]): Geometry['breakpoints'] {
   return {
     x: uniqueSorted(boxes.flatMap((b) => [b.x0, b.x1])),
     y: uniqueSorted(boxes.flatMap((b) => [b.y0, b.y1])),
     z: uniqueSorted(boxes.flatMap((b) => [b.z0, b.z1])),
   };
-}
-
-function crossSection(box: Box): CrossSection {
-  return { y0: box.y0, y1: box.y1, z0: box.z0, z1: box.z1 };
-}
-
-/** The face of `box` on `side`, as a rectangle in the two remaining axes. */
-export function faceRect(box: Box, side: Side): Rect {
-  const axis = side[1];
-  if (axis === 'x') return { a0: box.y0, a1: box.y1, b0: box.z0, b1: box.z1 };
-  if (axis === 'y') return { a0: box.x0, a1: box.x1, b0: box.z0, b1: box.z1 };
-  return { a0: box.x0, a1: box.x1, b0: box.y0, b1: box.y1 };
 }
 
 function ductGeometry(scenario: NormalisedDuctScenario): Geometry {
@@ -136,14 +119,14 @@ function ductGeometry(scenario: NormalisedDuctScenario): Geometry {
   });
   const duct: DuctPorts = {
     ...ports(scenario, sectionBoxes, branchBoxes, linings.layouts),
-    sections: sectionBoxes.map((b) => ({ name: b.tag, x0: b.x0, x1: b.x1, width: b.y1 - b.y0, height: b.z1 - b.z0, ...crossSection(b) })),
+    sections: sectionBoxes.map((b) => ({ name: b.tag, x0: b.x0, x1: b.x1, width: b.y1 - b.y0, height: b.z1 - b.z0, ...crossSectionOf(b) })),
     branches: branches.map((b, i) => ({ name: b.name, section: b.section, side: b.side, end: b.end, box: branchBoxes[i] })),
   };
   return { kind: 'duct', boxes, linings: linings.layouts, bounds: boundingBox(boxes, 'bounds'), openings, breakpoints: breakpointsOf(boxes), duct };
 }
 
 /** Sections, branches and lining slabs laid out, then snapped together so that faces meant to meet are equal. */
-function snappedParts(scenario: NormalisedDuctScenario): { sectionBoxes: Box[]; branchBoxes: Box[]; slabs: LiningSlab[] } {
+function snappedParts(scenario: NormalisedDuctScenario): { sectionBoxes: TaggedBox[]; branchBoxes: TaggedBox[]; slabs: LiningSlab[] } {
   const { sections, branches, outlet } = scenario.duct;
   const rawSections = layOutSections(sections);
   const rawBranches = branches.map((b) => {
@@ -162,14 +145,14 @@ function snappedParts(scenario: NormalisedDuctScenario): { sectionBoxes: Box[]; 
 }
 
 /** The ports and how far their runs are straight: up to the first branch or lining, from the last (linings only when measured). */
-function ports(scenario: NormalisedDuctScenario, sectionBoxes: Box[], branchBoxes: Box[], linings: LiningLayout[]): Pick<DuctPorts, 'inlet' | 'outlet'> {
+function ports(scenario: NormalisedDuctScenario, sectionBoxes: TaggedBox[], branchBoxes: TaggedBox[], linings: LiningLayout[]): Pick<DuctPorts, 'inlet' | 'outlet'> {
   const { branches, outlet } = scenario.duct, first = sectionBoxes[0], last = sectionBoxes[sectionBoxes.length - 1];
   const onSection = (name: string) => branchBoxes.filter((_, i) => branches[i].section === name);
   const lined = (name: string) => linings.filter((l) => l.section === name).map((l) => l.region);
   const outletLined = outlet === 'anechoic' ? lined(last.tag) : [];
   return {
-    inlet: { x: first.x0, rect: crossSection(first), clearTo: Math.min(first.x1, ...[...onSection(first.tag), ...lined(first.tag)].map((b) => b.x0)) },
-    outlet: { x: last.x1, rect: crossSection(last), clearFrom: Math.max(last.x0, ...[...onSection(last.tag), ...outletLined].map((b) => b.x1)), termination: outlet },
+    inlet: { x: first.x0, rect: crossSectionOf(first), clearTo: Math.min(first.x1, ...[...onSection(first.tag), ...lined(first.tag)].map((b) => b.x0)) },
+    outlet: { x: last.x1, rect: crossSectionOf(last), clearFrom: Math.max(last.x0, ...[...onSection(last.tag), ...outletLined].map((b) => b.x1)), termination: outlet },
   };
 }
 
@@ -177,7 +160,7 @@ function ports(scenario: NormalisedDuctScenario, sectionBoxes: Box[], branchBoxe
 const MAX_BOXES = 32_000;
 
 /** The lining slabs as boxes, cut where the material needs finer elements than the air, with their layouts. */
-function liningBoxes(scenario: NormalisedDuctScenario, slabs: LiningSlab[], others: Box[]): { boxes: Box[]; layouts: LiningLayout[] } {
+function liningBoxes(scenario: NormalisedDuctScenario, slabs: LiningSlab[], others: TaggedBox[]): { boxes: TaggedBox[]; layouts: LiningLayout[] } {
   const rule = { order: scenario.mesh.order, pointsPerWavelength: scenario.mesh.pointsPerWavelength, frequenciesHz: scenario.sweep.frequenciesHz };
   const airSize = airElementSize(rule, scenario.air.soundSpeed);
   const sized = slabs.map((slab) => {
@@ -186,7 +169,7 @@ function liningBoxes(scenario: NormalisedDuctScenario, slabs: LiningSlab[], othe
   });
   const pieces = sized.flatMap((s) => s.slab.pieces.map((box) => ({ box, size: s.size })));
   const cuts = liningCuts(pieces, breakpointsOf([...others, ...pieces.map((p) => p.box)]), airSize);
-  const boxes: Box[] = [];
+  const boxes: TaggedBox[] = [];
   const layouts = sized.map(({ slab, size, material }): LiningLayout => {
     const start = boxes.length;
     for (const piece of slab.pieces) boxes.push(...sliceBox(piece, cuts));
@@ -203,14 +186,9 @@ function liningBoxes(scenario: NormalisedDuctScenario, slabs: LiningSlab[], othe
   return { boxes, layouts };
 }
 
-/** Room walls are keyed "x-" in the file; openings use the outward normal "-x". */
-export function wallSide(key: WallKey): Side {
-  return `${key[1]}${key[0]}` as Side;
-}
-
 function roomGeometry(scenario: NormalisedRoomScenario): Geometry {
   const { size, walls, sources, receivers } = scenario.room;
-  const room: Box = { x0: 0, x1: size[0], y0: 0, y1: size[1], z0: 0, z1: size[2], tag: 'room' };
+  const room: TaggedBox = { x0: 0, x1: size[0], y0: 0, y1: size[1], z0: 0, z1: size[2], tag: 'room' };
   const openings = WALL_KEYS.filter((k) => walls[k] === 'open').map((k) => ({ side: wallSide(k), rect: faceRect(room, wallSide(k)), name: `wall ${k}` }));
   return {
     kind: 'room',

@@ -13,7 +13,8 @@
  * The ports' straight runs must stay air: the incident wave is launched and the reflection measured in
  * the first section, the transmitted power in the last one when the outlet is anechoic.
  */
-import { overlapAlong, SNAP_TOLERANCE, type Box } from './box.ts';
+import { overlapAlong, SNAP_TOLERANCE } from '../core/space.ts';
+import type { TaggedBox } from './box.ts';
 import type { NormalisedLining, NormalisedSection, Side, Termination } from './types.ts';
 
 const TOL = SNAP_TOLERANCE;
@@ -23,7 +24,7 @@ export interface LinedFace { lining: number; faceIndex: number; face: Side; thic
 export interface LiningSlab extends LinedFace {
   section: number;
   /** The slab as one or more boxes (an end wall with an opening in it takes up to four). */
-  pieces: Box[];
+  pieces: TaggedBox[];
 }
 
 export interface LiningProblem extends LinedFace { rule: string; statement: string; fix: string }
@@ -31,8 +32,8 @@ export interface LiningProblem extends LinedFace { rule: string; statement: stri
 export interface LinedDuct {
   sections: readonly NormalisedSection[];
   /** The sections' boxes, as laid out (duct-layout.ts). */
-  sectionBoxes: readonly Box[];
-  branches: readonly { name: string; section: string; box: Box }[];
+  sectionBoxes: readonly TaggedBox[];
+  branches: readonly { name: string; section: string; box: TaggedBox }[];
   outlet: Termination;
 }
 
@@ -90,7 +91,7 @@ function portProblem(duct: LinedDuct, s: number, lined: LinedFace): LiningProble
   return undefined;
 }
 
-function slabPieces(duct: LinedDuct, s: number, lined: LinedFace, faces: Map<Side, LinedFace>): Box[] {
+function slabPieces(duct: LinedDuct, s: number, lined: LinedFace, faces: Map<Side, LinedFace>): TaggedBox[] {
   const box = duct.sectionBoxes[s], t = lined.thickness, tag = liningTag(duct.sections[s].name, lined.face);
   const inset = (face: Side) => faces.get(face)?.thickness ?? 0;
   const y0 = box.y0 + inset('-y'), y1 = box.y1 - inset('+y'), z0 = box.z0 + inset('-z'), z1 = box.z1 - inset('+z');
@@ -131,7 +132,7 @@ function emptyEndWall(duct: LinedDuct, s: number, lined: LinedFace): LiningProbl
 }
 
 /** A slab that meets a branch's mouth over an area would put porous material across it. */
-function coveredBranch(duct: LinedDuct, s: number, lined: LinedFace, pieces: Box[]): LiningProblem | undefined {
+function coveredBranch(duct: LinedDuct, s: number, lined: LinedFace, pieces: TaggedBox[]): LiningProblem | undefined {
   const name = duct.sections[s].name;
   const branch = duct.branches.find((b) => b.section === name && pieces.some((p) => coversArea(p, b.box)));
   if (branch === undefined) return undefined;
@@ -142,7 +143,7 @@ function coveredBranch(duct: LinedDuct, s: number, lined: LinedFace, pieces: Box
   };
 }
 
-function coversArea(a: Box, b: Box): boolean {
+function coversArea(a: TaggedBox, b: TaggedBox): boolean {
   const o = (['x', 'y', 'z'] as const).map((axis) => overlapAlong(a, b, axis));
   return o.every((v) => v >= -TOL) && o.filter((v) => v > TOL).length >= 2;
 }

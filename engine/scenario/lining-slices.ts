@@ -8,21 +8,22 @@
  * interval decides), so they never land next to an existing face and make a sliver of an element.
  */
 import { porousWave, type PorousAir, type PorousModel } from '../acoustics/index.ts';
-import { lower, SNAP_TOLERANCE, upper, type Axis, type Box } from './box.ts';
+import { AXES, lower, maxElementSize, SNAP_TOLERANCE, upper, type Axis } from '../core/index.ts';
+import type { TaggedBox } from './box.ts';
 import { tidy, uniqueSorted } from './snap.ts';
 
 const TOL = SNAP_TOLERANCE;
-const AXES: readonly Axis[] = ['x', 'y', 'z'];
 
 export interface MeshRule { order: number; pointsPerWavelength: number; frequenciesHz: readonly number[] }
 
-/** The element size the rule gives for a wavenumber: order·(2π/|k|)/points per wavelength, as the mesher does for the air. */
+/** The element size the grading rule gives for a wavenumber |k|: its wavelength 2π/|k|. */
 function sizeFor(rule: MeshRule, wavenumber: number): number {
-  return (rule.order * 2 * Math.PI) / (wavenumber * rule.pointsPerWavelength);
+  return maxElementSize(rule.order, (2 * Math.PI) / wavenumber, rule.pointsPerWavelength);
 }
 
+/** The air's element size, exactly as the mesher grades it: the wavelength at the top of the sweep. */
 export function airElementSize(rule: MeshRule, soundSpeed: number): number {
-  return sizeFor(rule, (2 * Math.PI * Math.max(...rule.frequenciesHz)) / soundSpeed);
+  return maxElementSize(rule.order, soundSpeed / Math.max(...rule.frequenciesHz), rule.pointsPerWavelength);
 }
 
 /** The largest element edge a lining needs: its largest |kc| over the sweep decides. */
@@ -32,7 +33,7 @@ export function liningElementSize(rule: MeshRule, model: PorousModel, flowResist
   return sizeFor(rule, kMax);
 }
 
-export interface SizedPiece { box: Box; size: number }
+export interface SizedPiece { box: TaggedBox; size: number }
 
 /** Per axis, the cut coordinates: intervals between breakpoints that a finer lining spans are split evenly. */
 export function liningCuts(pieces: readonly SizedPiece[], breakpoints: Record<Axis, readonly number[]>, airSize: number): Record<Axis, number[]> {
@@ -52,12 +53,12 @@ export function liningCuts(pieces: readonly SizedPiece[], breakpoints: Record<Ax
 }
 
 /** The box cut at every cut coordinate strictly inside it: a tensor product of slices. */
-export function sliceBox(box: Box, cuts: Record<Axis, readonly number[]>): Box[] {
+export function sliceBox(box: TaggedBox, cuts: Record<Axis, readonly number[]>): TaggedBox[] {
   const edges = AXES.map((axis) => {
     const lo = lower(box, axis), hi = upper(box, axis);
     return uniqueSorted([lo, ...cuts[axis].filter((c) => c > lo + TOL && c < hi - TOL), hi]);
   });
-  const out: Box[] = [];
+  const out: TaggedBox[] = [];
   for (let k = 1; k < edges[2].length; k++) for (let j = 1; j < edges[1].length; j++) for (let i = 1; i < edges[0].length; i++) {
     out.push({ x0: edges[0][i - 1], x1: edges[0][i], y0: edges[1][j - 1], y1: edges[1][j], z0: edges[2][k - 1], z1: edges[2][k], tag: box.tag });
   }

@@ -2,7 +2,7 @@
  * Coordinates that should coincide but differ by rounding (0.3 − 0.03 against 0.27, a sum of
  * section lengths) are made exactly equal, so that faces meant to meet do meet in the mesh.
  */
-import { SNAP_TOLERANCE } from './box.ts';
+import { SNAP_TOLERANCE } from '../core/space.ts';
 
 // Sums of decimal lengths carry noise near 1e-16 m; rounding to 1e-12 m removes it for any duct
 // under a kilometre (v·1e12 stays below 2^53), long before the snap tolerance matters.

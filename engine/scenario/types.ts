@@ -4,15 +4,14 @@
  * scenarios/schema.json documents the same format field by field; tests keep the two in step.
  */
 import type { Band, PorousModel } from '../acoustics/index.ts';
+import type { Side, WallKey } from '../core/space.ts';
+
+export type { Side, WallKey };
 
 export const SCENARIO_FORMAT = 'quietgrid/1';
 
-/** A face of an axis-aligned box: the outward normal's sign and axis. */
-export type Side = '-x' | '+x' | '-y' | '+y' | '-z' | '+z';
 /** Duct walls a side branch can leave from (the duct runs along x). */
-export type BranchSide = '-y' | '+y' | '-z' | '+z';
-/** Room walls are keyed by axis first, as in the file: "x-" is the wall at x = 0. */
-export type WallKey = 'x-' | 'x+' | 'y-' | 'y+' | 'z-' | 'z+';
+export type BranchSide = Exclude<Side, '-x' | '+x'>;
 
 /** A locally reacting boundary given by its normal-incidence absorption coefficient, 0 < α ≤ 1. */
 export interface AbsorptionBoundary { absorption: number }

@@ -6,7 +6,8 @@
 import { liningMaterial, porousFittedFrequencies, porousValidity } from '../acoustics/index.ts';
 import { item, join, type Checker } from './checker.ts';
 import { layOutBranch, layOutSections } from './duct-layout.ts';
-import { LIMITS, LINING_LIBRARY, LINING_MODELS, SIDES } from './fields.ts';
+import { SIDES } from '../core/space.ts';
+import { LIMITS, LINING_LIBRARY, LINING_MODELS } from './fields.ts';
 import { MISSING, num, type Found } from './issues.ts';
 import { layOutLinings } from './lining-layout.ts';
 import { get, readArray, readEnum, readEnumOr, readNumber, readObject, readString, required, type Json } from './reader.ts';

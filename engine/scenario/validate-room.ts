@@ -2,9 +2,9 @@
  * The room block: a box [0, Lx]×[0, Ly]×[0, Lz] with a condition per wall, point sources of given
  * volume velocity and receivers, all strictly inside (a point on a wall is ambiguous for the mesh).
  */
-import { SNAP_TOLERANCE } from './box.ts';
+import { SNAP_TOLERANCE, WALL_KEYS } from '../core/space.ts';
 import { item, join, type Checker } from './checker.ts';
-import { LIMITS, WALL_KEYS, WALL_WORDS } from './fields.ts';
+import { LIMITS, WALL_WORDS } from './fields.ts';
 import { MISSING, num, type Found } from './issues.ts';
 import { get, readArray, readName, readNumber, readNumbers, readObject, required, type Json } from './reader.ts';
 import { readBoundary } from './validate-boundary.ts';

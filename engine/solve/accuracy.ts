@@ -12,9 +12,10 @@
  * A room's open walls see waves at every angle: there the estimate is the formula's worst over the range
  * the layers are tuned for (k_x/k ∈ [0.2, 1], κ/k ∈ [0.2, 5]); more grazing waves reflect more.
  */
-import { chooseLengths, DEFAULT_RANGE, padeReflection, worstReflection, type Complex } from '../assembly/layers.ts';
+import { chooseLengths, DEFAULT_RANGE, padeReflection, worstReflection } from '../assembly/layers.ts';
+import type { Complex } from '../core/complex.ts';
+import { crossSectionOf, type CrossSection } from '../core/space.ts';
 import { modeWavenumber, portRange } from './duct.ts';
-import type { PlaneRect } from './planes.ts';
 import type { NormalisedScenario } from '../scenario/types.ts';
 import { solvePoint, type PointResult, type Prepared } from './scenario.ts';
 import { planeWaveEstimate } from './planewave.ts';
@@ -62,12 +63,12 @@ export interface ReflectionEstimate {
   max: number | null;
 }
 
-interface Port { name: string; rect: PlaneRect }
+interface Port { name: string; rect: CrossSection }
 
 /** Every opening that carries layers: the inlet, an anechoic outlet, each open branch end (its own cross-section). */
 function ductPorts(p: Extract<Prepared, { kind: 'duct' }>): Port[] {
-  const d = p.geometry.duct!, ports: Port[] = [{ name: 'inlet', rect: rectOf(d.inlet.rect) }];
-  if (d.outlet.termination === 'anechoic') ports.push({ name: 'outlet', rect: rectOf(d.outlet.rect) });
+  const d = p.geometry.duct!, ports: Port[] = [{ name: 'inlet', rect: crossSectionOf(d.inlet.rect) }];
+  if (d.outlet.termination === 'anechoic') ports.push({ name: 'outlet', rect: crossSectionOf(d.outlet.rect) });
   for (const b of d.branches) {
     if (b.end !== 'open') continue;
     // the mode shapes only need the two side lengths: the branch's x extent and its extent across the wall
@@ -77,12 +78,8 @@ function ductPorts(p: Extract<Prepared, { kind: 'duct' }>): Port[] {
   return ports;
 }
 
-function rectOf(r: { y0: number; y1: number; z0: number; z1: number }): PlaneRect {
-  return { y0: r.y0, y1: r.y1, z0: r.z0, z1: r.z1 };
-}
-
 /** The mode (m, n) ≠ (0, 0) of a rigid rectangle whose |k_x|/k is smallest at wavenumber k. */
-export function leastDampedMode(k: number, rect: PlaneRect): { m: number; n: number; q: Complex } | null {
+export function leastDampedMode(k: number, rect: CrossSection): { m: number; n: number; q: Complex } | null {
   const a = rect.y1 - rect.y0, b = rect.z1 - rect.z0;
   // kt = k is crossed before mπ/a exceeds 2k; scan a little beyond
   const mMax = Math.min(40, Math.ceil((2 * k * a) / Math.PI) + 1), nMax = Math.min(40, Math.ceil((2 * k * b) / Math.PI) + 1);

@@ -13,7 +13,9 @@
  * decomposition of two cross-section means on each side: TL = 20 log10|A/C| + 10 log10(S_in/S_out)
  * (Chung & Blaser, JASA 68, 1980; ASTM E2611).
  */
-import { buildGrid, type AirBox, type GridOpening } from '../grid/grid.ts';
+import { buildGrid, type GridOpening } from '../grid/grid.ts';
+import type { Complex } from '../core/complex.ts';
+import { crossSectionArea, maxElementSize, mul, sub, type Box, type CrossSection } from '../core/index.ts';
 import { buildMesh, dofCoordinates, type Mesh } from '../grid/mesh.ts';
 import { assembleHelmholtz, symbolicAssembly, uniformMaterials, type AssemblyPattern, type Materials } from '../assembly/assemble.ts';
 import { layerStretches, type AbsorberKind, type AbsorptionRange } from '../assembly/layers.ts';
@@ -22,21 +24,21 @@ import { addSurfaceAdmittance, boundaryFaces } from '../assembly/boundary.ts';
 import { zeroVector, type ComplexCsr, type ComplexVector } from '../linalg/sparse.ts';
 import { analyzeMesh, solveAt, SweepMemory, type LinearStats } from './linear.ts';
 import type { Symbolic } from '../linalg/index.ts';
-import { averagePower, cellSpan, samplePlane, type PlaneRect } from './planes.ts';
+import { averagePower, cellSpan, samplePlane } from './planes.ts';
 
 /** An equivalent fluid filling a box: 1/ρ and 1/κ, complex for porous media (e^{+jωt}). */
-export interface Medium { rhoInv: { re: number; im: number }; kappaInv: { re: number; im: number } }
+export interface Medium { rhoInv: Complex; kappaInv: Complex }
 
-export type DuctTermination = 'anechoic' | 'rigid' | { admittance: { re: number; im: number } }; // admittance 1/Z_s, m²·s/kg
+export type DuctTermination = 'anechoic' | 'rigid' | { admittance: Complex }; // admittance 1/Z_s, m²·s/kg
 
 export interface DuctModel {
   /** Air boxes; where boxes overlap the one listed first decides the cell's medium (list linings before their section). */
-  boxes: AirBox[];
+  boxes: Box[];
   /** Per frequency, the medium of each box (null: the air). Absent: air everywhere. */
   media?: (frequencyHz: number) => (Medium | null)[];
   openings: GridOpening[];
-  inlet: { x: number; rect: PlaneRect; clearTo: number };
-  outlet: { x: number; rect: PlaneRect; clearFrom: number; termination: DuctTermination };
+  inlet: { x: number; rect: CrossSection; clearTo: number };
+  outlet: { x: number; rect: CrossSection; clearFrom: number; termination: DuctTermination };
   soundSpeed: number;
   density: number;
   order: number;
@@ -90,7 +92,7 @@ export function prepareDuct(model: DuctModel): DuctPrepared {
   const lambda = model.soundSpeed / model.maxFrequencyHz;
   const grid = buildGrid({
     order: model.order, boxes: model.boxes, openings: model.openings,
-    maxElementSize: (model.order * lambda) / model.pointsPerWavelength,
+    maxElementSize: maxElementSize(model.order, lambda, model.pointsPerWavelength),
     layerCount: model.absorber.layers,
     layerThickness: model.absorber.thickness !== undefined ? model.absorber.thickness / model.absorber.layers : undefined,
     extraBreakpoints: { x: [planes.reflection, planes.split] },
@@ -118,19 +120,19 @@ function materialsAt(prep: DuctPrepared, frequencyHz: number): Materials {
   return { rhoInv: [air.rhoInv, ...media.map((m) => m.rhoInv)], kappaInv: [air.kappaInv, ...media.map((m) => m.kappaInv)], ofElement: prep.materials.ofElement };
 }
 
-function modeShape(rect: PlaneRect, m: number, n: number): (y: number, z: number) => number {
+function modeShape(rect: CrossSection, m: number, n: number): (y: number, z: number) => number {
   const a = rect.y1 - rect.y0, b = rect.z1 - rect.z0;
   return (y, z) => Math.cos((m * Math.PI * (y - rect.y0)) / a) * Math.cos((n * Math.PI * (z - rect.z0)) / b);
 }
 
 /** k_x of mode (m, n) in a rigid rectangular duct: real above cut-on, −jκ below (e^{+jωt}). */
-export function modeWavenumber(k: number, rect: PlaneRect, m: number, n: number): { re: number; im: number } {
+export function modeWavenumber(k: number, rect: CrossSection, m: number, n: number): Complex {
   const kt2 = (m * Math.PI / (rect.y1 - rect.y0)) ** 2 + (n * Math.PI / (rect.z1 - rect.z0)) ** 2, d = k * k - kt2;
   return d >= 0 ? { re: Math.sqrt(d), im: 0 } : { re: 0, im: -Math.sqrt(-d) };
 }
 
 /** What the port layers must absorb at wavenumber k: the propagating and the least-damped evanescent modes of both ports. */
-export function portRange(k: number, rects: PlaneRect[]): AbsorptionRange {
+export function portRange(k: number, rects: CrossSection[]): AbsorptionRange {
   let minProp = 1, minEv = Infinity;
   for (const r of rects) for (let m = 0; m <= 8; m++) for (let n = 0; n <= 8; n++) {
     if (m === 0 && n === 0) continue;
@@ -183,7 +185,7 @@ export function ductResults(prep: DuctPrepared, frequencyHz: number, u: ComplexV
   const { model, mesh, planes } = prep, { inlet, outlet } = model;
   const omega = 2 * Math.PI * frequencyHz, k = omega / model.soundSpeed;
   const [m, n] = model.incident.mode, psi = modeShape(inlet.rect, m, n), kx = modeWavenumber(k, inlet.rect, m, n), amp = model.incident.amplitude;
-  const rho = model.density, sIn = area(inlet.rect), sOut = area(outlet.rect);
+  const rho = model.density, sIn = crossSectionArea(inlet.rect), sOut = crossSectionArea(outlet.rect);
   const norm = (m > 0 ? 0.5 : 1) * (n > 0 ? 0.5 : 1);
   const incidentPower = (0.5 * amp * amp * kx.re * sIn * norm) / (omega * rho);
   // the reflection plane is the top of an element lying wholly on the scattered side
@@ -205,19 +207,15 @@ export function ductResults(prep: DuctPrepared, frequencyHz: number, u: ComplexV
   };
 }
 
-function area(r: PlaneRect): number { return (r.y1 - r.y0) * (r.z1 - r.z0); }
-
-function belowCutOn(k: number, rects: PlaneRect[]): boolean {
+function belowCutOn(k: number, rects: CrossSection[]): boolean {
   return rects.every((r) => modeWavenumber(k, r, 1, 0).im !== 0 && modeWavenumber(k, r, 0, 1).im !== 0);
 }
 
 /** Two-microphone decomposition p̄(x) = A e^{−jkξ} + B e^{+jkξ}, ξ = x − x_in, from cross-section means at two planes. */
-function waveAmplitudes(p1: { re: number; im: number }, p2: { re: number; im: number }, x1: number, x2: number, k: number): { fwd: { re: number; im: number } } {
+function waveAmplitudes(p1: Complex, p2: Complex, x1: number, x2: number, k: number): { fwd: Complex } {
   // [e^{−jkx1} e^{jkx1}; e^{−jkx2} e^{jkx2}] [A; B] = [p1; p2]
   const e = (s: number, x: number) => ({ re: Math.cos(s * k * x), im: Math.sin(s * k * x) });
   const a11 = e(-1, x1), a12 = e(1, x1), a21 = e(-1, x2), a22 = e(1, x2);
-  const mul = (a: { re: number; im: number }, b: { re: number; im: number }) => ({ re: a.re * b.re - a.im * b.im, im: a.re * b.im + a.im * b.re });
-  const sub = (a: { re: number; im: number }, b: { re: number; im: number }) => ({ re: a.re - b.re, im: a.im - b.im });
   const det = sub(mul(a11, a22), mul(a12, a21)), num = sub(mul(p1, a22), mul(a12, p2));
   const d2 = det.re ** 2 + det.im ** 2;
   return { fwd: { re: (num.re * det.re + num.im * det.im) / d2, im: (num.im * det.re - num.re * det.im) / d2 } };
@@ -225,7 +223,7 @@ function waveAmplitudes(p1: { re: number; im: number }, p2: { re: number; im: nu
 
 function decompositionTl(prep: DuctPrepared, u: ComplexVector, k: number, omega: number, sIn: number, sOut: number): number {
   const { mesh, planes, model } = prep, rho = model.density, x0 = model.inlet.x;
-  const mean = (x: number, rect: PlaneRect) => samplePlane(mesh, u, x, rect, omega, rho).mean;
+  const mean = (x: number, rect: CrossSection) => samplePlane(mesh, u, x, rect, omega, rho).mean;
   const [i1, i2] = planes.inletMics, [o1, o2] = planes.outletMics;
   const A = waveAmplitudes(mean(i1, model.inlet.rect), mean(i2, model.inlet.rect), i1 - x0, i2 - x0, k).fwd;
   const C = waveAmplitudes(mean(o1, model.outlet.rect), mean(o2, model.outlet.rect), o1 - x0, o2 - x0, k).fwd;

@@ -4,17 +4,16 @@
  * column cut by the plane is integrated with a (p+1)-point Gauss rule in y and z; the element on the
  * low-x side of the plane is used when x₀ falls on an element boundary.
  */
-import type { ComplexVector } from '../linalg/sparse.ts';
+import type { Complex, ComplexVector } from '../core/complex.ts';
+import type { CrossSection } from '../core/space.ts';
 import type { Mesh } from '../grid/mesh.ts';
 import { tabulate } from '../fe/basis.ts';
 import { gaussLegendre } from '../fe/quadrature.ts';
 
-export interface PlaneRect { y0: number; y1: number; z0: number; z1: number }
-
 export interface PlaneSample {
   area: number;
-  mean: { re: number; im: number }; // ∫p dS / area
-  projection: { re: number; im: number }; // ∫p ψ dS / ∫ψ² dS
+  mean: Complex; // ∫p dS / area
+  projection: Complex; // ∫p ψ dS / ∫ψ² dS
   power: number; // ½ Re ∫ p v_x* dS, W, positive towards +x
 }
 
@@ -25,7 +24,7 @@ function cellOf(nodes: Float64Array, x: number, lowSide: boolean): number {
   return -1;
 }
 
-export function samplePlane(mesh: Mesh, u: ComplexVector, x0: number, rect: PlaneRect, omega: number, density: number, psi: (y: number, z: number) => number = () => 1): PlaneSample {
+export function samplePlane(mesh: Mesh, u: ComplexVector, x0: number, rect: CrossSection, omega: number, density: number, psi: (y: number, z: number) => number = () => 1): PlaneSample {
   const g = mesh.grid, p = mesh.order, n = p + 1, n3 = n * n * n, [nx, ny] = g.dims;
   const i = cellOf(g.axes[0].nodes, x0, true);
   if (i < 0) throw new Error(`samplePlane: x = ${x0} m is outside the grid`);
@@ -73,7 +72,7 @@ export function samplePlane(mesh: Mesh, u: ComplexVector, x0: number, rect: Plan
  * the same through every cross-section, and the average is far more accurate than one plane's, whose
  * ∂p/∂x carries the element's O(h^p) error.
  */
-export function averagePower(mesh: Mesh, u: ComplexVector, x0: number, x1: number, rect: PlaneRect, omega: number, density: number): number {
+export function averagePower(mesh: Mesh, u: ComplexVector, x0: number, x1: number, rect: CrossSection, omega: number, density: number): number {
   const rule = gaussLegendre(mesh.order + 1);
   let w = 0;
   for (let q = 0; q < rule.points.length; q++) {

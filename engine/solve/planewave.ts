@@ -8,7 +8,7 @@
  * above it the higher modes carry power that the chain ignores.
  */
 import { firstCutOn, planeWaveTl, type Chain, type ChainElement } from '../acoustics/index.ts';
-import type { Box } from '../scenario/geometry.ts';
+import type { Box } from '../core/space.ts';
 import type { Prepared } from './scenario.ts';
 
 export interface PlaneWaveEstimate {

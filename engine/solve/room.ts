@@ -3,7 +3,9 @@
  * given volume velocity; the result is the pressure at each receiver. Open walls carry absorbing layers
  * on their face, with edge and corner layers where open walls meet.
  */
-import { buildGrid, type AirBox, type GridOpening, type Side } from '../grid/grid.ts';
+import { buildGrid, type GridOpening } from '../grid/grid.ts';
+import type { Complex } from '../core/complex.ts';
+import { faceRect, maxElementSize, splDb, type Box, type Side } from '../core/index.ts';
 import { buildMesh, type Mesh } from '../grid/mesh.ts';
 import { assembleHelmholtz, symbolicAssembly, uniformMaterials, type AssemblyPattern, type Materials } from '../assembly/assemble.ts';
 import { layerStretches, type AbsorberKind } from '../assembly/layers.ts';
@@ -14,9 +16,9 @@ import { analyzeMesh, solveAt, SweepMemory, type LinearStats } from './linear.ts
 import type { Symbolic } from '../linalg/index.ts';
 
 export interface RoomModel {
-  box: AirBox;
+  box: Box;
   open: Side[];
-  surfaces: { side: Side; admittance: { re: number; im: number } }[]; // per unit of 1/Z_s
+  surfaces: { side: Side; admittance: Complex }[]; // per unit of 1/Z_s
   sources: { name: string; position: [number, number, number]; volumeVelocity: number }[];
   receivers: { name: string; position: [number, number, number] }[];
   soundSpeed: number;
@@ -27,24 +29,21 @@ export interface RoomModel {
   absorber: { kind: AbsorberKind; layers: number; thickness?: number };
 }
 
-export interface RoomPrepared { model: RoomModel; mesh: Mesh; assembly: AssemblyPattern; symbolic: Symbolic; memory: SweepMemory; materials: Materials; faces: { element: number; side: Side; admittance: { re: number; im: number } }[] }
+export interface RoomPrepared { model: RoomModel; mesh: Mesh; assembly: AssemblyPattern; symbolic: Symbolic; memory: SweepMemory; materials: Materials; faces: SurfaceFace[] }
 
 export interface RoomPoint {
   frequencyHz: number;
-  receivers: { name: string; pressure: { re: number; im: number }; splDb: number }[];
+  receivers: { name: string; pressure: Complex; splDb: number }[];
   stats: LinearStats & { assembleSeconds: number };
   field?: ComplexVector;
 }
 
-const P_REF = 20e-6;
-
 export function prepareRoom(model: RoomModel): RoomPrepared {
   const b = model.box;
-  const rectOf = (s: Side) => (s[1] === 'x' ? { a0: b.y0, a1: b.y1, b0: b.z0, b1: b.z1 } : s[1] === 'y' ? { a0: b.x0, a1: b.x1, b0: b.z0, b1: b.z1 } : { a0: b.x0, a1: b.x1, b0: b.y0, b1: b.y1 });
-  const openings: GridOpening[] = model.open.map((side) => ({ side, rect: rectOf(side) }));
+  const openings: GridOpening[] = model.open.map((side) => ({ side, rect: faceRect(b, side) }));
   const lambda = model.soundSpeed / model.maxFrequencyHz;
   const grid = buildGrid({
-    order: model.order, boxes: [b], openings, maxElementSize: (model.order * lambda) / model.pointsPerWavelength,
+    order: model.order, boxes: [b], openings, maxElementSize: maxElementSize(model.order, lambda, model.pointsPerWavelength),
     layerCount: model.absorber.layers, layerThickness: model.absorber.thickness !== undefined ? model.absorber.thickness / model.absorber.layers : undefined,
   });
   const mesh = buildMesh(grid), assembly = symbolicAssembly(mesh);
@@ -68,7 +67,7 @@ export function roomSystem(prep: RoomPrepared, frequencyHz: number, values?: Com
 export function roomResults(prep: RoomPrepared, frequencyHz: number, u: ComplexVector): RoomPoint['receivers'] {
   return prep.model.receivers.map((r) => {
     const p = evaluateAt(prep.mesh, u, r.position);
-    return { name: r.name, pressure: p, splDb: 20 * Math.log10(Math.hypot(p.re, p.im) / Math.SQRT2 / P_REF) };
+    return { name: r.name, pressure: p, splDb: splDb(Math.hypot(p.re, p.im)) };
   });
 }
 

@@ -4,12 +4,12 @@
  * sweep, never of a subset, so that parts of one sweep solved apart (other machines, other workers) are
  * the same computation and their results can be merged.
  */
-import type { NormalisedScenario } from '../scenario/types.ts';
+import type { NormalisedScenario, WallKey } from '../scenario/types.ts';
 import { buildGeometry, type Geometry } from '../scenario/geometry.ts';
 import { liningMedia } from '../scenario/linings.ts';
 import { cutOnFrequencies, type DuctMode } from '../acoustics/index.ts';
 import type { ComplexCsr, ComplexVector } from '../linalg/sparse.ts';
-import type { Side } from '../grid/grid.ts';
+import { crossSectionOf, wallSide } from '../core/space.ts';
 import { surfaceAdmittance } from '../assembly/boundary.ts';
 import { ductResults, ductSystem, prepareDuct, solveDuctAt, type DuctPoint, type DuctPrepared } from './duct.ts';
 import { prepareRoom, roomResults, roomSystem, solveRoomAt, type RoomPoint, type RoomPrepared } from './room.ts';
@@ -28,8 +28,6 @@ export type Prepared =
 /** accuracy: the figures that need no other solve, when the thread that solved the point added them (engine/solve/accuracy.ts). */
 export type PointResult = (({ kind: 'duct' } & DuctPoint) | ({ kind: 'room' } & RoomPoint)) & { accuracy?: PointAccuracy };
 
-const WALL_SIDE: Record<string, Side> = { 'x-': '-x', 'x+': '+x', 'y-': '-y', 'y+': '+y', 'z-': '-z', 'z+': '+z' };
-
 export interface PrepareOptions {
   /** Refuse (ProblemTooLarge) above this many estimated dofs; Infinity when the user confirmed a large run. */
   maxDofs?: number;
@@ -46,11 +44,10 @@ export function prepareScenario(s: NormalisedScenario, opts: PrepareOptions = {}
   if (s.kind === 'duct') {
     const ports = geometry.duct!, t = ports.outlet.termination, rhoC = s.air.density * s.air.soundSpeed;
     const term = typeof t === 'string' ? t : { admittance: surfaceAdmittance(t, rhoC) };
-    const rectOf = (r: { y0: number; y1: number; z0: number; z1: number }) => ({ y0: r.y0, y1: r.y1, z0: r.z0, z1: r.z1 });
     const duct = prepareDuct({
       ...common, boxes: geometry.boxes, openings: geometry.openings, media: liningMedia(geometry, s.air),
-      inlet: { x: ports.inlet.x, rect: rectOf(ports.inlet.rect), clearTo: ports.inlet.clearTo },
-      outlet: { x: ports.outlet.x, rect: rectOf(ports.outlet.rect), clearFrom: ports.outlet.clearFrom, termination: term },
+      inlet: { x: ports.inlet.x, rect: crossSectionOf(ports.inlet.rect), clearTo: ports.inlet.clearTo },
+      outlet: { x: ports.outlet.x, rect: crossSectionOf(ports.outlet.rect), clearFrom: ports.outlet.clearFrom, termination: term },
       incident: { mode: s.duct.incident.mode, amplitude: s.duct.incident.amplitudePa },
     });
     return { kind: 'duct', scenario: s, geometry, duct, info: info(s, duct.mesh, duct.assembly.pattern.colIdx.length, duct.symbolic, top, typedArrayBytes(duct)) };
@@ -59,8 +56,8 @@ export function prepareScenario(s: NormalisedScenario, opts: PrepareOptions = {}
   const walls = Object.entries(layout.walls);
   const room = prepareRoom({
     ...common, box: geometry.bounds,
-    open: walls.filter(([, w]) => w === 'open').map(([k]) => WALL_SIDE[k]),
-    surfaces: walls.filter(([, w]) => typeof w === 'object').map(([k, w]) => ({ side: WALL_SIDE[k], admittance: surfaceAdmittance(w as { absorption: number } | { impedance: [number, number] }, rhoC) })),
+    open: walls.filter(([, w]) => w === 'open').map(([k]) => wallSide(k as WallKey)),
+    surfaces: walls.filter(([, w]) => typeof w === 'object').map(([k, w]) => ({ side: wallSide(k as WallKey), admittance: surfaceAdmittance(w as { absorption: number } | { impedance: [number, number] }, rhoC) })),
     sources: layout.sources, receivers: layout.receivers,
   });
   return { kind: 'room', scenario: s, geometry, room, info: info(s, room.mesh, room.assembly.pattern.colIdx.length, room.symbolic, top, typedArrayBytes(room)) };

@@ -6,6 +6,7 @@
  */
 import type { NormalisedScenario } from '../scenario/types.ts';
 import type { Geometry } from '../scenario/geometry.ts';
+import { maxElementSize } from '../core/grading.ts';
 
 export interface SizeEstimate {
   elements: number;
@@ -26,7 +27,7 @@ export class ProblemTooLarge extends Error {
 
 export function estimateSize(s: NormalisedScenario, g: Geometry): SizeEstimate {
   const p = s.mesh.order, top = Math.max(...s.sweep.frequenciesHz);
-  const hmax = (p * s.air.soundSpeed) / top / s.mesh.pointsPerWavelength;
+  const hmax = maxElementSize(p, s.air.soundSpeed / top, s.mesh.pointsPerWavelength);
   const breaks = [g.breakpoints.x, g.breakpoints.y, g.breakpoints.z];
   const keys = [['x0', 'x1'], ['y0', 'y1'], ['z0', 'z1']] as const;
   // elements along axis d between a and b, counted the way the grid splits each interval — arithmetic only, so an absurd size costs nothing

@@ -1,6 +1,6 @@
 /** Linings as boxes: the corner and end-wall rules, the ports' unlined runs, and the finer cut for the material's wavelength. */
 import { describe, expect, it } from 'vitest';
-import { buildGeometry, formatIssues, liningMedia, validateScenario, type Box, type Geometry, type NormalisedScenario } from '../../engine/scenario/index.ts';
+import { buildGeometry, formatIssues, liningMedia, validateScenario, type TaggedBox, type Geometry, type NormalisedScenario } from '../../engine/scenario/index.ts';
 import { porousMedium } from '../../engine/acoustics/index.ts';
 import { prepareScenario } from '../../engine/solve/scenario.ts';
 
@@ -13,9 +13,9 @@ function scenarioOf(duct: object, linings: object[], sweep: object = { frequenci
   return r.scenario;
 }
 
-const volume = (b: Box) => (b.x1 - b.x0) * (b.y1 - b.y0) * (b.z1 - b.z0);
-const overlap = (a: Box, b: Box) => Math.max(0, Math.min(a.x1, b.x1) - Math.max(a.x0, b.x0)) * Math.max(0, Math.min(a.y1, b.y1) - Math.max(a.y0, b.y0)) * Math.max(0, Math.min(a.z1, b.z1) - Math.max(a.z0, b.z0));
-const inside = (a: Box, b: Box) => a.x0 >= b.x0 - 1e-12 && a.x1 <= b.x1 + 1e-12 && a.y0 >= b.y0 - 1e-12 && a.y1 <= b.y1 + 1e-12 && a.z0 >= b.z0 - 1e-12 && a.z1 <= b.z1 + 1e-12;
+const volume = (b: TaggedBox) => (b.x1 - b.x0) * (b.y1 - b.y0) * (b.z1 - b.z0);
+const overlap = (a: TaggedBox, b: TaggedBox) => Math.max(0, Math.min(a.x1, b.x1) - Math.max(a.x0, b.x0)) * Math.max(0, Math.min(a.y1, b.y1) - Math.max(a.y0, b.y0)) * Math.max(0, Math.min(a.z1, b.z1) - Math.max(a.z0, b.z0));
+const inside = (a: TaggedBox, b: TaggedBox) => a.x0 >= b.x0 - 1e-12 && a.x1 <= b.x1 + 1e-12 && a.y0 >= b.y0 - 1e-12 && a.y1 <= b.y1 + 1e-12 && a.z0 >= b.z0 - 1e-12 && a.z1 <= b.z1 + 1e-12;
 const liningBoxes = (g: Geometry) => g.linings.flatMap((l) => l.boxes.map((i) => g.boxes[i]));
 
 describe('a chamber lined on all six faces', () => {

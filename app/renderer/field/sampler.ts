@@ -6,15 +6,14 @@
  *
  * Only the physical region is sampled (the absorbing layers are left out); points in solid cells are NaN.
  */
+import type { Box } from '../../../engine/core/space.ts';
 import type { Mesh } from '../../../engine/grid/mesh.ts';
 import { tabulate } from '../../../engine/fe/basis.ts';
 import type { ComplexVector } from '../../../engine/linalg/sparse.ts';
 import { planeAxes, type Axis, type Slice, type SliceRequest } from '../protocol.ts';
 
-export interface Bounds { x0: number; x1: number; y0: number; y1: number; z0: number; z1: number }
-
-const lo = (b: Bounds, d: Axis) => (d === 0 ? b.x0 : d === 1 ? b.y0 : b.z0);
-const hi = (b: Bounds, d: Axis) => (d === 0 ? b.x1 : d === 1 ? b.y1 : b.z1);
+const lo = (b: Box, d: Axis) => (d === 0 ? b.x0 : d === 1 ? b.y0 : b.z0);
+const hi = (b: Box, d: Axis) => (d === 0 ? b.x1 : d === 1 ? b.y1 : b.z1);
 
 /** Cell-centred sample coordinates over [a, b]. */
 function samples(a: number, b: number, n: number): Float64Array {
@@ -68,7 +67,7 @@ export function sampleCounts(du: number, dv: number, maxSamples: number): [numbe
   return [Math.max(2, Math.round((n * du) / dv)), n];
 }
 
-export function sampleSlice(mesh: Mesh, cellElements: Int32Array, u: ComplexVector, bounds: Bounds, frequencyHz: number, request: SliceRequest): Slice {
+export function sampleSlice(mesh: Mesh, cellElements: Int32Array, u: ComplexVector, bounds: Box, frequencyHz: number, request: SliceRequest): Slice {
   const { axis } = request, [ua, va] = planeAxes(axis), p = mesh.order, n = p + 1, n3 = n * n * n;
   const position = Math.min(hi(bounds, axis), Math.max(lo(bounds, axis), request.position));
   const [nu, nv] = sampleCounts(hi(bounds, ua) - lo(bounds, ua), hi(bounds, va) - lo(bounds, va), request.maxSamples);

@@ -3,15 +3,16 @@
  * instantaneous pressure Re{p e^{jωt}} (time dependence e^{+jωt}, p a peak amplitude); solid points blank.
  */
 import { toCsv } from '../../../engine/report/csv.ts';
+import { AXES, splDb as splOfPeak } from '../../../engine/core/index.ts';
 import { planeAxes, type Slice } from '../protocol.ts';
 
 export type Quantity = 'spl' | 'real';
 
-export const P_REF = 20e-6;
-export const AXIS_NAMES = ['x', 'y', 'z'] as const;
+export const AXIS_NAMES = AXES;
 
+/** Level of a complex peak pressure, dB re 20 µPa (engine/core/levels.ts). */
 export function splDb(re: number, im: number): number {
-  return 20 * Math.log10(Math.hypot(re, im) / Math.SQRT2 / P_REF);
+  return splOfPeak(Math.hypot(re, im));
 }
 
 /** Re{p e^{jωt}} at phase ωt. */

@@ -1,9 +1,20 @@
-// Small complex scalars for the dense 2×2 plane-wave work (not for loops over
-// many values: those use split re/im Float64Arrays, see DEVELOPERS.md).
+/**
+ * Complex numbers, in the two shapes the engine uses (DEVELOPERS.md, "Complex arrays"):
+ *  - `Complex`, one scalar {re, im}: material coefficients, admittances, wavenumbers, mode factors,
+ *    the small dense plane-wave algebra. Never in a loop over many values.
+ *  - `ComplexVector`, split re/im Float64Arrays of equal length: fields, right-hand sides, matrix values.
+ * Time dependence e^{+jωt} throughout; these helpers are plain algebra and take no side on it.
+ */
 
 export interface Complex {
   re: number;
   im: number;
+}
+
+/** n complex values as two arrays of length n (read without creating objects). */
+export interface ComplexVector {
+  re: Float64Array;
+  im: Float64Array;
 }
 
 export const cx = (re: number, im = 0): Complex => ({ re, im });
