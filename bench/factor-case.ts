@@ -10,7 +10,7 @@ import { createWriteStream, writeFileSync } from 'node:fs';
 import { once } from 'node:events';
 import { join } from 'node:path';
 import { readScenario } from '../engine/scenario/index.ts';
-import { prepareScenario, systemAt } from '../engine/solve/scenario.ts';
+import { prepareProblem } from '../engine/solve/prepare.ts';
 import { analyzeMesh } from '../engine/solve/linear.ts';
 import { factor, solve, matrixMarketChunks, writeMatrixMarketVector, relativeResidual, FactorWorkspace, planParallel } from '../engine/linalg/index.ts';
 import { nodeFactorThreads } from '../engine/node/factorThreads.ts';
@@ -23,14 +23,14 @@ if (!c || !outDir) throw new Error('usage: factor-case.ts NAME OUTDIR');
 const gc = (globalThis as { gc?: () => void }).gc ?? (() => {});
 const now = () => performance.now() / 1000;
 
-const p = prepareScenario(readScenario(chamberScenario(c)).scenario, { maxDofs: Infinity });
+const p = prepareProblem(readScenario(chamberScenario(c)).scenario, { maxDofs: Infinity });
 if (p.kind !== 'duct') throw new Error('a duct case');
+const pattern = p.system(c.topHz).A; // warm-up: the first call compiles the kernels
 let t = now();
-const S = analyzeMesh(p.duct.mesh, p.duct.assembly.pattern);
+const S = analyzeMesh(p.mesh, pattern);
 const analyseSeconds = now() - t;
-systemAt(p, c.topHz); // warm-up: the first call compiles the kernels
 t = now();
-const { A, b } = systemAt(p, c.topHz);
+const { A, b } = p.system(c.topHz);
 const assembleSeconds = now() - t;
 gc();
 const rss0 = process.memoryUsage().rss;

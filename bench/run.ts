@@ -25,7 +25,7 @@ import { cpus, freemem, loadavg, totalmem, tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { readScenario } from '../engine/scenario/index.ts';
-import { prepareScenario } from '../engine/solve/scenario.ts';
+import { prepareProblem } from '../engine/solve/prepare.ts';
 import { chamberScenario, FACTOR_CASES, type DuctCase } from './scenarios.ts';
 import { buildMumps, runMumps, mumpsTotal, mumpsCpu, MUMPS_ORDERINGS, REAL_FLOPS_PER_MUMPS_FLOP, type MumpsRun } from './mumps.ts';
 import { splitterBench } from './waveguide-splitter.ts';
@@ -239,7 +239,7 @@ for (const c of cases) {
 if (results.length > 0) {
   say('## 1. Factorisation of assembled duct systems');
   say();
-  say('Scenario: an elongated expansion chamber (0.25 × 0.2 m runs of 0.5 m, a 0.5 × 0.4 m chamber of the length given), 8 points per wavelength at the top frequency, assembled with `prepareScenario` + `systemAt` at that frequency (bench/scenarios.ts).');
+  say('Scenario: an elongated expansion chamber (0.25 × 0.2 m runs of 0.5 m, a 0.5 × 0.4 m chamber of the length given), 8 points per wavelength at the top frequency, assembled with `prepareProblem` + `problem.system` at that frequency (bench/scenarios.ts).');
   say('Ours = lattice nested dissection + symbolic analysis (`analyzeMesh`), multifrontal LDLᵀ (`factor`, WebAssembly SIMD kernels unless noted), one `solve`, single thread; GFlop/s = our exact flop count / factor wall time. SciPy = `scipy.sparse.linalg.splu` (SuperLU, partial pivoting with its default threshold) on the same matrix read from the Matrix Market file, factor + solve timed inside Python, reading excluded, with OPENBLAS_NUM_THREADS=OMP_NUM_THREADS=1 so that both run on one thread. CPU seconds are process CPU time (Node `process.cpuUsage`, Python `time.process_time`): steadier than wall time when the machine is shared.');
   say();
   table(['case', 'order', 'dofs', 'nnz(A)', 'nnz(L) ours', 'GFlop', 'analyse s', 'factor s', 'factor CPU s', 'solve s', 'ours total s', 'GFlop/s', 'residual'],
@@ -308,7 +308,7 @@ if (!skip.has('sweep')) {
     const freqs = Array.from({ length: 24 }, (_, i) => Math.round(100 * Math.pow(10, i / 23)));
     const file = join(dir, 'sweep.json');
     writeFileSync(file, chamberScenario(c, freqs));
-    const dofs = prepareScenario(readScenario(chamberScenario(c, freqs)).scenario, { maxDofs: Infinity }).info.dofs;
+    const dofs = prepareProblem(readScenario(chamberScenario(c, freqs)).scenario, { maxDofs: Infinity }).info.dofs;
     console.error('sweep with 1 and 2 workers …');
     const perFrequency = (out: string) => {
       const t = (JSON.parse(readFileSync(join(out, 'summary.json'), 'utf8')) as { timing: { assemble_s: number; factor_s: number; solve_s: number } }).timing;
@@ -345,7 +345,7 @@ if (!skip.has('startup')) {
   try {
     const demos = readdirSync(join(root, 'scenarios')).filter((f) => f.endsWith('.json') && f !== 'schema.json').map((f) => {
       const s = readScenario(readFileSync(join(root, 'scenarios', f), 'utf8')).scenario;
-      return { f, work: prepareScenario(s, { maxDofs: Infinity }).info.dofs * s.sweep.frequenciesHz.length };
+      return { f, work: prepareProblem(s, { maxDofs: Infinity }).info.dofs * s.sweep.frequenciesHz.length };
     }).sort((a, b) => a.work - b.work);
     const demo = demos[0].f;
     const s = readScenario(readFileSync(join(root, 'scenarios', demo), 'utf8')).scenario;
@@ -375,7 +375,7 @@ if (!skip.has('largest')) {
   const base = FACTOR_CASES[FACTOR_CASES.length - 1];
   /** What one solve holds at its peak: the worker's own estimate (prepared problem, matrix, factor, vectors) and the runtime (this process's resident set before any case: the same Node and modules). */
   const estimate = (L: number) => {
-    const i = prepareScenario(readScenario(chamberScenario({ ...base, chamberLength: L })).scenario, { maxDofs: Infinity }).info;
+    const i = prepareProblem(readScenario(chamberScenario({ ...base, chamberLength: L })).scenario, { maxDofs: Infinity }).info;
     return { L, dofs: i.dofs, factor: i.memoryEstimateBytes, total: i.workerMemoryBytes + runtimeBytes };
   };
   console.error('largest duct in 8 GiB …');

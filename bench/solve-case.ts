@@ -6,7 +6,7 @@
  * process from its start (Linux VmHWM, else maxRSS): what the machine must hold for this solve.
  */
 import { readScenario } from '../engine/scenario/index.ts';
-import { prepareScenario, solvePoint } from '../engine/solve/scenario.ts';
+import { prepareProblem } from '../engine/solve/prepare.ts';
 import { chamberScenario } from './scenarios.ts';
 import { peakBytes } from './memory.ts';
 
@@ -14,9 +14,9 @@ const [order, topHz, chamberLength] = process.argv.slice(2).map(Number);
 if (![order, topHz, chamberLength].every((v) => v > 0)) throw new Error('usage: solve-case.ts ORDER TOP_HZ CHAMBER_M');
 const now = () => performance.now();
 const t0 = now();
-const p = prepareScenario(readScenario(chamberScenario({ name: 'long', order, topHz, chamberLength })).scenario, { maxDofs: Infinity });
+const p = prepareProblem(readScenario(chamberScenario({ name: 'long', order, topHz, chamberLength })).scenario, { maxDofs: Infinity });
 const prepareSeconds = (now() - t0) / 1000;
-const point = solvePoint(p, topHz, now);
+const point = p.solve(topHz, now);
 if (point.kind !== 'duct') throw new Error('a duct case');
 console.log(JSON.stringify({
   dofs: p.info.dofs, prepareSeconds, assembleSeconds: point.stats.assembleSeconds, factorSeconds: point.stats.factorSeconds, solveSeconds: point.stats.solveSeconds,

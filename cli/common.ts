@@ -9,10 +9,11 @@ import { freemem } from 'node:os';
 import { DEFAULT_MAX_BYTES, ScenarioError, buildGeometry, formatIssues, parseScenarioText, validateScenario, type Issue, type NormalisedScenario } from '../engine/scenario/index.ts';
 import { estimateSize, LARGE_PROBLEM_DOFS, ProblemTooLarge } from '../engine/solve/size.ts';
 import { describeFileError, readTextFile, writeFileAtomicIn } from '../engine/node/files.ts';
-import { meshOf, prepareScenario, sectionCutOns, type PointResult, type Prepared } from '../engine/solve/scenario.ts';
+import { prepareProblem } from '../engine/solve/prepare.ts';
+import type { Problem } from '../engine/solve/problem.ts';
+import type { PointAccuracy, PointResult } from '../engine/solve/points.ts';
 import { buildReport, tableCsv, type ReportFailure, type Summary } from '../engine/report/results.ts';
-import { ACCURACY_READING, FLAG_MEANINGS, THRESHOLDS, pointAccuracy, withOrderCheck, type PointAccuracy } from '../engine/solve/accuracy.ts';
-import { planeWaveValidBelowHz } from '../engine/solve/planewave.ts';
+import { ACCURACY_READING, FLAG_MEANINGS, THRESHOLDS, withOrderCheck } from '../engine/solve/assess.ts';
 import { fieldToVtu } from '../engine/report/vtk.ts';
 import { dofCoordinates } from '../engine/grid/mesh.ts';
 
@@ -146,7 +147,7 @@ export function peakMemoryBytes(): number {
 
 export interface RunRecord {
   loaded: Loaded;
-  prepared: Prepared;
+  prepared: Problem;
   points: PointResult[];
   frequenciesHz: number[];
   failures: ReportFailure[];
@@ -158,9 +159,9 @@ export interface RunRecord {
 }
 
 /** Each point with its accuracy figures and flags (the order check where a p + 1 solve of the same frequency exists). */
-export function assessPoints(prepared: Prepared, points: readonly PointResult[], checks: readonly PointResult[] = []): (PointResult & { accuracy: PointAccuracy })[] {
+export function assessPoints(prepared: Problem, points: readonly PointResult[], checks: readonly PointResult[] = []): (PointResult & { accuracy: PointAccuracy })[] {
   return points.map((p) => {
-    const a = p.accuracy ?? pointAccuracy(prepared, p), finer = checks.find((c) => c.frequencyHz === p.frequencyHz);
+    const a = p.accuracy ?? prepared.assess(p), finer = checks.find((c) => c.frequencyHz === p.frequencyHz);
     return { ...p, accuracy: finer ? withOrderCheck(a, p, finer) : a };
   });
 }
@@ -170,10 +171,10 @@ export async function writeReport(dir: string, run: RunRecord): Promise<{ files:
   const { scenario, warnings } = run.loaded;
   const checks = run.checks ?? [];
   const report = buildReport({
-    scenario, info: run.prepared.info, cutOns: sectionCutOns(run.prepared, run.prepared.info.topFrequencyHz), points: assessPoints(run.prepared, run.points, checks),
+    scenario, info: run.prepared.info, cutOns: run.prepared.cutOns(run.prepared.info.topFrequencyHz), points: assessPoints(run.prepared, run.points, checks),
     frequenciesHz: run.frequenciesHz, failures: run.failures, warnings, totalSeconds: run.totalSeconds, peakMemoryBytes: peakMemoryBytes(), notes: run.notes,
     accuracy: {
-      reading: ACCURACY_READING, flagMeanings: FLAG_MEANINGS, thresholds: THRESHOLDS, planeWaveValidBelowHz: planeWaveValidBelowHz(run.prepared),
+      reading: ACCURACY_READING, flagMeanings: FLAG_MEANINGS, thresholds: THRESHOLDS, planeWaveValidBelowHz: run.prepared.describe().planeWaveValidBelowHz,
       orderCheckedHz: checks.map((c) => c.frequencyHz).filter((f) => run.points.some((p) => p.frequencyHz === f)), orderCheckFailures: run.checkFailures,
     },
   });
@@ -185,14 +186,15 @@ export async function writeReport(dir: string, run: RunRecord): Promise<{ files:
 }
 
 /** A writer of field files that keeps the dof coordinates, computed once per mesh. */
-export function fieldWriter(dir: string, prepared: Prepared): (point: PointResult) => Promise<string | undefined> {
-  const mesh = meshOf(prepared);
+export function fieldWriter(dir: string, prepared: Problem): (point: PointResult) => Promise<string | undefined> {
+  const mesh = prepared.mesh;
   let xyz: Float64Array | undefined;
   return async (point) => {
     if (!point.field) return undefined;
     xyz ??= dofCoordinates(mesh);
     const file = join(dir, `field-${hz(point.frequencyHz)}Hz.vtu`);
-    await writeFileAtomicIn(file, fieldToVtu(mesh, xyz, point.field, { frequencyHz: point.frequencyHz }));
+    // the total pressure: upstream of a duct's split plane the solver's unknowns are the reflected wave alone
+    await writeFileAtomicIn(file, fieldToVtu(mesh, xyz, prepared.totalField(point.frequencyHz, point.field), { frequencyHz: point.frequencyHz }));
     return file;
   };
 }
@@ -211,12 +213,12 @@ export function describeWarnings(warnings: readonly Issue[]): string[] {
  * millimetres as metres should not take the machine down), and never when the factor would not fit in
  * the free memory — that stops before any factorisation, with the estimate and the levers.
  */
-export function prepareGuarded(loaded: Loaded, confirmed: boolean, freeBytes: number = freemem()): Prepared {
+export function prepareGuarded(loaded: Loaded, confirmed: boolean, freeBytes: number = freemem()): Problem {
   const s = loaded.scenario, size = estimateSize(s, buildGeometry(s));
   if (!confirmed && !(size.dofs <= LARGE_PROBLEM_DOFS)) throw new UsageError(`${loaded.path}: ${new ProblemTooLarge(size, LARGE_PROBLEM_DOFS).message}`);
-  let prepared: Prepared;
+  let prepared: Problem;
   try {
-    prepared = prepareScenario(s, { maxDofs: Infinity });
+    prepared = prepareProblem(s, { maxDofs: Infinity });
   } catch (e) {
     // prepareScenario refuses what the engine cannot model, naming the field.
     throw new UsageError(`${loaded.path}: cannot set up the problem: ${e instanceof Error ? e.message : String(e)}`);

@@ -2,7 +2,7 @@
  * Progress of a sweep on stderr: a bar redrawn in place on a terminal, one line per frequency
  * otherwise (a log file or a CI job cannot take carriage returns).
  */
-import type { PointResult } from '../engine/solve/scenario.ts';
+import type { PointResult } from '../engine/solve/points.ts';
 import { hz } from './common.ts';
 
 export interface ProgressStream {

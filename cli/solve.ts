@@ -3,7 +3,8 @@
  * spectrum.csv, bands.csv and summary.json; optionally the fields as .vtu files.
  */
 import { performance } from 'node:perf_hooks';
-import type { PointResult, Prepared } from '../engine/solve/scenario.ts';
+import type { PointResult } from '../engine/solve/points.ts';
+import type { Problem } from '../engine/solve/problem.ts';
 import { defaultWorkerCount, solveFrequencies, type PointFailure, type PoolOutcome } from '../engine/node/pool.ts';
 import {
   prepareGuarded,
@@ -11,7 +12,7 @@ import {
   megabytes, parseFrequencyList, parseOptions, parseWorkers, scenarioPath, writeReport, type Io, type Loaded,
 } from './common.ts';
 import { Progress } from './progress.ts';
-import { defaultOrderCheckFrequencies } from '../engine/solve/accuracy.ts';
+import { defaultOrderCheckFrequencies } from '../engine/sweep/plan.ts';
 
 export const SOLVE_HELP = `Usage: quietgrid solve SCENARIO.json [options]
 
@@ -109,7 +110,7 @@ export function describeFlags(byFrequency: readonly { frequencyHz: number; flags
 }
 
 
-function describeRun(loaded: Loaded, prepared: Prepared, io: Io): void {
+function describeRun(loaded: Loaded, prepared: Problem, io: Io): void {
   const { scenario: s } = loaded, i = prepared.info;
   io.out(`Scenario: ${s.title} (${s.kind})`);
   io.out(`Mesh: order ${i.order}, ${i.elements} elements, ${i.dofs} dofs, ${i.layers} absorbing layers (${i.absorberKind}), graded for ${hz(i.topFrequencyHz)} Hz at ${i.pointsPerWavelength} points per wavelength`);
@@ -118,7 +119,7 @@ function describeRun(loaded: Loaded, prepared: Prepared, io: Io): void {
 }
 
 /** Runs the pool with progress on stderr, Ctrl-C as cancel, and fields written as they arrive. */
-async function sweep(loaded: Loaded, prepared: Prepared, frequencies: number[], checks: number[], workers: number, fieldsDir: string | undefined): Promise<{ outcome: PoolOutcome; fieldError?: string }> {
+async function sweep(loaded: Loaded, prepared: Problem, frequencies: number[], checks: number[], workers: number, fieldsDir: string | undefined): Promise<{ outcome: PoolOutcome; fieldError?: string }> {
   const progress = new Progress(frequencies.length + checks.length, process.stderr, () => performance.now());
   const writeField = fieldsDir !== undefined ? fieldWriter(fieldsDir, prepared) : undefined;
   let fieldWrites: Promise<unknown> = Promise.resolve(), fieldError: string | undefined;

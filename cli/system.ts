@@ -3,7 +3,6 @@
  * solver as Matrix Market files, and that solver's answer back in as the usual report.
  */
 import { performance } from 'node:perf_hooks';
-import { resultsFromSolution, systemAt } from '../engine/solve/scenario.ts';
 import { readMatrixMarketVector, relativeResidual, writeMatrixMarket, writeMatrixMarketVector } from '../engine/linalg/index.ts';
 import { describeFileError, readTextFile, writeFileAtomicIn } from '../engine/node/files.ts';
 import {
@@ -79,7 +78,7 @@ export async function exportCommand(args: string[], io: Io): Promise<number> {
   const loaded = await loadScenario(scenarioPath('export-system', positionals));
   const f = parseFrequency('--frequency', values.frequency, loaded.scenario);
   if (values.out === undefined) throw new UsageError('--out A.mtx is required: the file for the matrix (the right-hand side goes beside it)');
-  const { A, b } = systemAt(prepareGuarded(loaded, values.yes === true), f);
+  const { A, b } = prepareGuarded(loaded, values.yes === true).system(f);
   const about = [`quietgrid system A x = b at f = ${f} Hz`, `scenario: ${loaded.path} (${loaded.scenario.title})`, 'unknowns: peak pressure, Pa, at the mesh nodes; time dependence e^{+jwt}'];
   const rhs = rhsPath(values.out);
   await writeFileAtomicIn(values.out, withComments(writeMatrixMarket(A), [...about, 'A: complex symmetric (not Hermitian), lower triangle']));
@@ -100,11 +99,11 @@ export async function importCommand(args: string[], io: Io): Promise<number> {
   const start = performance.now();
   const p = prepareGuarded(loaded, values.yes === true);
   const x = await readSolution(values.solution, p.info.dofs);
-  const { A, b } = systemAt(p, f);
+  const { A, b } = p.system(f);
   const residual = relativeResidual(A, x, b);
   io.out(`Read ${values.solution}: ${p.info.dofs} unknowns; relative residual ‖Ax − b‖/‖b‖ = ${residual.toExponential(2)}`);
   if (!(residual <= RESIDUAL_WARNING)) io.err(`quietgrid: warning: the residual ${residual.toExponential(2)} is large: was the system exported from ${loaded.path} at ${hz(f)} Hz, and did the other solver converge?`);
-  const point = { ...resultsFromSolution(p, f, x), field: x };
+  const point = { ...p.results(f, x), field: x };
   const notes = [`Solution imported from ${values.solution}, relative residual ${residual.toExponential(3)}; the timings do not include the external solve.`];
   const dir = values.out ?? defaultOutDir(loaded.path);
   const { files } = await writeReport(dir, { loaded, prepared: p, points: [point], frequenciesHz: [f], failures: [], totalSeconds: (performance.now() - start) / 1000, notes });

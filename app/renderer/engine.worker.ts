@@ -4,13 +4,13 @@
  * the worker goes on with the next; a scenario that cannot be prepared is 'fatal'.
  */
 import { validateScenario, formatIssues, type NormalisedScenario } from '../../engine/scenario/index.ts';
-import { meshOf, prepareScenario, sectionCutOns, solvePoint, type Prepared } from '../../engine/solve/scenario.ts';
+import { prepareProblem } from '../../engine/solve/prepare.ts';
+import type { Problem } from '../../engine/solve/problem.ts';
 import { ProblemTooLarge } from '../../engine/solve/size.ts';
-import { ACCURACY_READING, assessPoint, solveAssessed, defaultOrderCheckFrequencies, finerScenario, FLAG_MEANINGS, THRESHOLDS } from '../../engine/solve/accuracy.ts';
-import { planeWaveValidBelowHz } from '../../engine/solve/planewave.ts';
+import { ACCURACY_READING, FLAG_MEANINGS, THRESHOLDS, withOrderCheck } from '../../engine/solve/assess.ts';
+import { defaultOrderCheckFrequencies } from '../../engine/sweep/plan.ts';
 import type { ComplexVector } from '../../engine/linalg/sparse.ts';
 import { elementOfCell, sampleSlice } from './field/sampler.ts';
-import { totalField } from './field/total.ts';
 import { transferOf, type FromWorker, type ToWorker, type WorkerScope } from './protocol.ts';
 
 const scope = self as unknown as WorkerScope;
@@ -30,10 +30,10 @@ function normalise(value: unknown): NormalisedScenario {
   return r.scenario;
 }
 
-let prepared: Prepared | undefined;
+let prepared: Problem | undefined;
+let scenarioOf: NormalisedScenario | undefined;
 /** The same scenario one order higher, for the order check: prepared on the first check. */
-let finer: Prepared | undefined;
-let allowLargeRun = false;
+let finer: Problem | undefined;
 let keepFields = false;
 const fields = new Map<number, ComplexVector>();
 let cellElements: Int32Array | undefined;
@@ -45,11 +45,11 @@ function limits(allowLarge: boolean) {
 function prepare(scenario: unknown, keep: boolean, allowLarge: boolean): void {
   const t0 = now();
   try {
-    prepared = prepareScenario(normalise(scenario), limits(allowLarge));
+    scenarioOf = normalise(scenario);
+    prepared = prepareProblem(scenarioOf, limits(allowLarge));
     keepFields = keep;
-    allowLargeRun = allowLarge;
-    const accuracy = { reading: ACCURACY_READING, flagMeanings: { ...FLAG_MEANINGS }, thresholds: { ...THRESHOLDS }, planeWaveValidBelowHz: planeWaveValidBelowHz(prepared) };
-    post({ type: 'ready', info: prepared.info, cutOns: sectionCutOns(prepared, prepared.info.topFrequencyHz), accuracy, orderCheckHz: defaultOrderCheckFrequencies(prepared.scenario.sweep.frequenciesHz), prepareSeconds: (now() - t0) / 1000 });
+    const accuracy = { reading: ACCURACY_READING, flagMeanings: { ...FLAG_MEANINGS }, thresholds: { ...THRESHOLDS }, planeWaveValidBelowHz: prepared.describe().planeWaveValidBelowHz };
+    post({ type: 'ready', info: prepared.info, cutOns: prepared.cutOns(prepared.info.topFrequencyHz), accuracy, orderCheckHz: defaultOrderCheckFrequencies(scenarioOf.sweep.frequenciesHz), prepareSeconds: (now() - t0) / 1000 });
   } catch (e) {
     post({ type: 'fatal', message: messageOf(e) });
   }
@@ -58,7 +58,8 @@ function prepare(scenario: unknown, keep: boolean, allowLarge: boolean): void {
 function solve(frequencyHz: number): void {
   if (!prepared) return post({ type: 'failure', frequencyHz, message: 'the worker has no prepared scenario' });
   try {
-    post({ type: 'result', point: solveAssessed(prepared, frequencyHz, now, keepFields) });
+    const solved = prepared.solve(frequencyHz, now, keepFields);
+    post({ type: 'result', point: { ...solved, accuracy: prepared.assess(solved) } });
   } catch (e) {
     post({ type: 'failure', frequencyHz, message: messageOf(e) });
   }
@@ -68,8 +69,8 @@ function check(point: Extract<ToWorker, { type: 'check' }>['point']): void {
   const f = point.frequencyHz;
   try {
     if (!prepared) throw new Error('the worker has no prepared scenario');
-    finer ??= prepareScenario(finerScenario(prepared.scenario), limits(allowLargeRun));
-    post({ type: 'checked', frequencyHz: f, accuracy: assessPoint(prepared, point, solvePoint(finer, f, now, false)) });
+    finer ??= prepared.finer();
+    post({ type: 'checked', frequencyHz: f, accuracy: withOrderCheck(point.accuracy, point, finer.solve(f, now, false)) });
   } catch (e) {
     post({ type: 'check-failure', frequencyHz: f, message: messageOf(e) });
   }
@@ -78,7 +79,7 @@ function check(point: Extract<ToWorker, { type: 'check' }>['point']): void {
 function estimate(id: number, scenario: unknown, allowLarge: boolean): void {
   const t0 = now();
   try {
-    const p = prepareScenario(normalise(scenario), limits(allowLarge));
+    const p = prepareProblem(normalise(scenario), limits(allowLarge));
     post({ type: 'estimate', id, info: p.info, prepareSeconds: (now() - t0) / 1000 });
   } catch (e) {
     post({ type: 'estimate-error', id, message: messageOf(e), tooLarge: e instanceof ProblemTooLarge });
@@ -90,9 +91,9 @@ function slice(id: number, frequencyHz: number, request: Extract<ToWorker, { typ
     if (!prepared) throw new Error('the field worker has no prepared scenario');
     const u = fields.get(frequencyHz);
     if (!u) throw new Error(`no field kept at ${frequencyHz} Hz`);
-    const mesh = meshOf(prepared);
+    const mesh = prepared.mesh;
     cellElements ??= elementOfCell(mesh);
-    const b = prepared.geometry.bounds;
+    const b = prepared.bounds;
     post({ type: 'slice', id, slice: sampleSlice(mesh, cellElements, u, b, frequencyHz, request) });
   } catch (e) {
     post({ type: 'slice-error', id, message: messageOf(e) });
@@ -108,7 +109,7 @@ scope.onmessage = (event) => {
     case 'estimate': return estimate(m.id, m.scenario, m.allowLarge);
     case 'field':
       // Fields are kept as the total pressure (the solver's inlet run holds the reflected wave only).
-      fields.set(m.frequencyHz, prepared ? totalField(prepared, m.frequencyHz, { re: m.re, im: m.im }) : { re: m.re, im: m.im });
+      fields.set(m.frequencyHz, prepared ? prepared.totalField(m.frequencyHz, { re: m.re, im: m.im }) : { re: m.re, im: m.im });
       return;
     case 'slice': return slice(m.id, m.frequencyHz, m.request);
   }

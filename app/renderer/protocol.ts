@@ -8,8 +8,8 @@
  *   estimate  one 'estimate' per request: prepare only, report the mesh and solver sizes
  *   field     prepare once, keep the fields handed to it, and answer 'slice' requests
  */
-import type { MeshInfo, PointResult } from '../../engine/solve/scenario.ts';
-import type { PointAccuracy } from '../../engine/solve/accuracy.ts';
+import type { MeshInfo } from '../../engine/solve/problem.ts';
+import type { PointAccuracy, PointResult } from '../../engine/solve/points.ts';
 import type { DuctMode } from '../../engine/acoustics/index.ts';
 
 export interface SectionCutOns { section: string; modes: DuctMode[] }

@@ -52,7 +52,7 @@ function polyAt(c: number[], zr: number, zi: number): Complex {
 }
 
 /** R at a rigid-ended stack of layers with dimensionless lengths ℓ_j = k·L̃_j, for k_x/k = q. */
-export function padeReflection(p: number, lengths: Complex[], q: Complex): Complex {
+export function padeReflection(p: number, lengths: readonly Complex[], q: Complex): Complex {
   const c = padeCoefficients(p);
   let re = 1, im = 0;
   for (const l of lengths) {
@@ -87,7 +87,7 @@ function samples(r: AbsorptionRange, count = 24): Complex[] {
   return out;
 }
 
-export function worstReflection(p: number, lengths: Complex[], range: AbsorptionRange = DEFAULT_RANGE): number {
+export function worstReflection(p: number, lengths: readonly Complex[], range: AbsorptionRange = DEFAULT_RANGE): number {
   let worst = 0;
   for (const q of samples(range, 48)) {
     const R = padeReflection(p, lengths, q);
@@ -203,6 +203,8 @@ export interface AbsorberOptions {
   /** Target reflection of the smooth profile, R₀ = exp(−2 Im(k L̃)): default 1e-6. */
   smoothTarget?: number;
   range?: AbsorptionRange;
+  /** The lengths k·L̃ already chosen for this frequency (one per layer element); chosen here for `range` when absent. */
+  lengths?: readonly Complex[];
 }
 
 /**
@@ -223,12 +225,18 @@ export function layerStretches(grid: Grid, k: number, opts: AbsorberOptions): Ax
         const origin = side < 0 ? axis.nodes[axis.physLo] : axis.nodes[axis.physHi];
         out.push(smoothStretch(origin, side as 1 | -1, count * h, k, opts.smoothTarget ?? 1e-6));
       } else {
-        const l = chooseLengths(p, count, opts.range)[j];
+        const l = lengthsFor(p, count, opts)[j];
         out.push({ kind: 'constant', re: l.re / (k * h), im: l.im / (k * h), reduced: opts.kind === 'discrete' });
       }
     }
     return out;
   });
+}
+
+function lengthsFor(p: number, count: number, opts: AbsorberOptions): readonly Complex[] {
+  if (!opts.lengths) return chooseLengths(p, count, opts.range);
+  if (opts.lengths.length !== count) throw new RangeError(`layerStretches: ${opts.lengths.length} layer lengths given for a stack of ${count} layers`);
+  return opts.lengths;
 }
 
 /**

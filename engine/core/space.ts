@@ -16,6 +16,11 @@ export type Axis = 'x' | 'y' | 'z';
 export type AxisIndex = 0 | 1 | 2;
 export const AXES: readonly Axis[] = ['x', 'y', 'z'];
 
+/** The in-plane axes of a plane normal to `axis`, in x, y, z order (normal x: y and z; normal y: x and z; normal z: x and y). */
+export function planeAxes(axis: AxisIndex): [AxisIndex, AxisIndex] {
+  return axis === 0 ? [1, 2] : axis === 1 ? [0, 2] : [0, 1];
+}
+
 export interface Box { x0: number; x1: number; y0: number; y1: number; z0: number; z1: number }
 
 /** Coordinates closer than this are the same coordinate, m: far below any real dimension, far above rounding. */
@@ -37,6 +42,18 @@ export function overlapAlong(a: Box, b: Box, axis: Axis): number {
 /** True when the closed boxes meet at all — a shared face, edge or corner counts. */
 export function boxesMeet(a: Box, b: Box): boolean {
   return AXES.every((axis) => overlapAlong(a, b, axis) >= -SNAP_TOLERANCE);
+}
+
+/** The smallest box holding every box given. */
+export function boundsOf(boxes: readonly Box[]): Box {
+  return {
+    x0: Math.min(...boxes.map((b) => b.x0)),
+    x1: Math.max(...boxes.map((b) => b.x1)),
+    y0: Math.min(...boxes.map((b) => b.y0)),
+    y1: Math.max(...boxes.map((b) => b.y1)),
+    z0: Math.min(...boxes.map((b) => b.z0)),
+    z1: Math.max(...boxes.map((b) => b.z1)),
+  };
 }
 
 /** A side of a box by its outward normal. */

@@ -16,8 +16,9 @@ import { availableParallelism, freemem } from 'node:os';
 import { performance } from 'node:perf_hooks';
 import { setImmediate as yieldToEvents } from 'node:timers/promises';
 import type { NormalisedScenario } from '../scenario/index.ts';
-import { prepareScenario, solvePoint, type PointResult, type Prepared } from '../solve/scenario.ts';
-import { finerScenario, solveAssessed } from '../solve/accuracy.ts';
+import { prepareProblem } from '../solve/prepare.ts';
+import type { Problem } from '../solve/problem.ts';
+import type { PointResult } from '../solve/points.ts';
 
 export interface PointFailure { frequencyHz: number; message: string }
 
@@ -30,7 +31,7 @@ export interface PoolOptions {
   onResult?: (point: PointResult) => void;
   onFailure?: (failure: PointFailure) => void;
   /** The scenario already prepared in this thread: reused when solving in-process. */
-  prepared?: Prepared;
+  prepared?: Problem;
   /** Worker entry (a .mjs bootstrap); default ./worker.mjs beside this file. */
   entry?: URL;
   /** Frequencies to solve once more at element order p + 1 (the order check), after the sweep. */
@@ -104,8 +105,8 @@ function inThisThread(scenario: NormalisedScenario, frequenciesHz: readonly numb
   let cancelled = false;
   const work = async (): Promise<PoolOutcome> => {
     const out = emptyOutcome(0);
-    const prepared = opts.prepared ?? prepareScenario(scenario, { maxDofs: Infinity });
-    let finer: Prepared | Error | undefined;
+    const prepared = opts.prepared ?? prepareProblem(scenario, { maxDofs: Infinity });
+    let finer: Problem | Error | undefined;
     const jobs = jobsOf(frequenciesHz, opts.checkFrequencies);
     for (let i = 0; i < jobs.length; i++) {
       // Between frequencies, let signals and timers run so that a cancel can arrive.
@@ -114,14 +115,14 @@ function inThisThread(scenario: NormalisedScenario, frequenciesHz: readonly numb
       const { frequencyHz: f, finer: check } = jobs[i];
       try {
         if (check) {
-          finer ??= prepareOrError(finerScenario(scenario));
+          finer ??= prepareOrError(() => prepared.finer());
           if (finer instanceof Error) throw finer;
-          const point = solvePoint(finer, f, () => performance.now(), false);
+          const point = finer.solve(f, () => performance.now(), false);
           out.checks.push(point);
           opts.onCheck?.(point);
           continue;
         }
-        const point = solveAssessed(prepared, f, () => performance.now(), opts.keepFields ?? false);
+        const solved = prepared.solve(f, () => performance.now(), opts.keepFields ?? false), point = { ...solved, accuracy: prepared.assess(solved) };
         out.results.push(point);
         opts.onResult?.(point);
       } catch (e) {
@@ -140,9 +141,9 @@ function inThisThread(scenario: NormalisedScenario, frequenciesHz: readonly numb
   return { done: work(), cancel: () => { cancelled = true; } };
 }
 
-function prepareOrError(s: NormalisedScenario): Prepared | Error {
+function prepareOrError(prepare: () => Problem): Problem | Error {
   try {
-    return prepareScenario(s, { maxDofs: Infinity });
+    return prepare();
   } catch (e) {
     return e instanceof Error ? e : new Error(String(e));
   }

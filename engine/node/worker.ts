@@ -7,8 +7,8 @@
  */
 import { parentPort, workerData } from 'node:worker_threads';
 import { performance } from 'node:perf_hooks';
-import { prepareScenario, solvePoint, type Prepared } from '../solve/scenario.ts';
-import { finerScenario, solveAssessed } from '../solve/accuracy.ts';
+import { prepareProblem } from '../solve/prepare.ts';
+import type { Problem } from '../solve/problem.ts';
 import type { FromWorker, ToWorker, WorkerSetup } from './pool.ts';
 import { applyKernelChoice } from './kernelChoice.ts';
 
@@ -25,9 +25,9 @@ function messageOf(e: unknown): string {
   return e instanceof Error ? e.message : String(e);
 }
 
-function solveOne(prepared: Prepared, frequencyHz: number): void {
+function solveOne(prepared: Problem, frequencyHz: number): void {
   try {
-    const point = solveAssessed(prepared, frequencyHz, now, setup.keepFields);
+    const solved = prepared.solve(frequencyHz, now, setup.keepFields), point = { ...solved, accuracy: prepared.assess(solved) };
     const transfer = point.field ? [point.field.re.buffer as ArrayBuffer, point.field.im.buffer as ArrayBuffer] : [];
     post({ type: 'result', point }, transfer);
   } catch (e) {
@@ -35,27 +35,27 @@ function solveOne(prepared: Prepared, frequencyHz: number): void {
   }
 }
 
-let finer: Prepared | Error | undefined;
+let finer: Problem | Error | undefined;
 
 function checkOne(frequencyHz: number): void {
   try {
     if (finer === undefined) {
       try {
-        finer = prepareScenario(finerScenario(setup.scenario), { maxDofs: Infinity });
+        finer = prepared!.finer();
       } catch (e) {
         finer = e instanceof Error ? e : new Error(String(e));
       }
     }
     if (finer instanceof Error) throw finer;
-    post({ type: 'result', point: solvePoint(finer, frequencyHz, now, false), finer: true });
+    post({ type: 'result', point: finer.solve(frequencyHz, now, false), finer: true });
   } catch (e) {
     post({ type: 'failure', frequencyHz, message: messageOf(e), finer: true });
   }
 }
 
-let prepared: Prepared | undefined;
+let prepared: Problem | undefined;
 try {
-  prepared = prepareScenario(setup.scenario, { maxDofs: Infinity }); // the client (CLI: --yes) has already decided on the size
+  prepared = prepareProblem(setup.scenario, { maxDofs: Infinity }); // the client (CLI: --yes) has already decided on the size
   post({ type: 'ready' });
 } catch (e) {
   post({ type: 'fatal', message: messageOf(e) });

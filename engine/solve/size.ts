@@ -7,6 +7,8 @@
 import type { NormalisedScenario } from '../scenario/types.ts';
 import type { Geometry } from '../scenario/geometry.ts';
 import { maxElementSize } from '../core/grading.ts';
+import type { Mesh } from '../grid/mesh.ts';
+import type { ReportMeshInfo } from '../report/results.ts';
 
 export interface SizeEstimate {
   elements: number;
@@ -81,3 +83,16 @@ export function workerMemoryBytes(preparedBytes: number, nnz: number, dofs: numb
   return preparedBytes + 16 * nnz + factorBytes + SOLVE_VECTORS * 16 * dofs;
 }
 
+
+/** What a problem's mesh and factor cost, from its model's settings, its mesh and its analysis (preparedBytes: the arrays it keeps). */
+export function meshInfo(
+  model: { order: number; pointsPerWavelength: number; maxFrequencyHz: number; absorber: { kind: string; layers: number } },
+  mesh: Mesh, nnz: number, sym: { nnzL: number; flops: number; memoryBytes: number }, preparedBytes: number,
+): ReportMeshInfo {
+  const dofs = mesh.numbering.ndofs;
+  return {
+    order: model.order, pointsPerWavelength: model.pointsPerWavelength, topFrequencyHz: model.maxFrequencyHz, absorberKind: model.absorber.kind, layers: model.absorber.layers,
+    elements: mesh.elements.length, dofs, nnz, factorNonzeros: sym.nnzL, factorFlops: sym.flops, memoryEstimateBytes: sym.memoryBytes,
+    workerMemoryBytes: workerMemoryBytes(preparedBytes, nnz, dofs, sym.memoryBytes),
+  };
+}

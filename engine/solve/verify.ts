@@ -13,13 +13,13 @@
  *    against the closed forms;
  *  - porous: a rigid-backed porous layer at the end of a duct against its transfer-impedance absorption.
  */
-import { prepareDuct, solveDuctAt, type DuctModel, type Medium } from './duct.ts';
-import { prepareRoom, solveRoomAt, type RoomModel } from './room.ts';
+import { DuctProblem, type DuctModel, type Medium } from './duct.ts';
+import { RoomProblem, type RoomModel } from './room.ts';
 import { chooseLengths, DEFAULT_RANGE, padeReflection, worstReflection, type AbsorberKind } from '../assembly/layers.ts';
 import { closedSideBranchTl, cutOnFrequency, expansionChamberTl, normalIncidenceAbsorption, porousMedium, porousWave, rigidBackedImpedance, type PorousModel } from '../acoustics/index.ts';
 import { readScenario } from '../scenario/index.ts';
-import { prepareScenario, solvePoint, type Prepared } from './scenario.ts';
-import { planeWaveEstimate } from './planewave.ts';
+import { prepareProblem } from './prepare.ts';
+import type { Problem } from './problem.ts';
 
 export type VerifyGroupId = 'outgoing' | 'pade' | 'monopole' | 'duct' | 'porous';
 
@@ -65,7 +65,7 @@ export function straightDuct(kind: AbsorberKind, layers: number, order: number, 
 
 /** max |u − u_exact| over the physical dofs: e^{−jkx} on the total side, 0 on the scattered side (1 Pa incident). */
 export function outgoingError(model: DuctModel, now: Now): number {
-  const k = 2 * Math.PI, prep = prepareDuct(model), u = solveDuctAt(prep, C, now, true).field!;
+  const k = 2 * Math.PI, prep = new DuctProblem(model), u = prep.solve(C, now, true).field!;
   let error = 0;
   for (let i = 0; i < u.re.length; i++) {
     const x = prep.xyz[3 * i];
@@ -114,7 +114,7 @@ function outgoingTable(now: Now): Omit<VerifyTable, 'seconds'> {
  * mean of |u − e^{−jkx}| over the downstream run is |B| = |R| (1 Pa incident, λ = 1 m).
  */
 export function measuredOutletReflection(model: DuctModel, now: Now): number {
-  const k = 2 * Math.PI, prep = prepareDuct(model), u = solveDuctAt(prep, C, now, true).field!;
+  const k = 2 * Math.PI, prep = new DuctProblem(model), u = prep.solve(C, now, true).field!;
   let sum = 0, count = 0;
   for (let i = 0; i < u.re.length; i++) {
     const x = prep.xyz[3 * i];
@@ -151,7 +151,7 @@ function monopoleError(lowSide: boolean, ppw: number, layers: number, now: Now):
     sources: [{ name: 'Q', position: [o, o, o], volumeVelocity: Q / 8 }], receivers,
     soundSpeed: C, density: RHO, order: 4, pointsPerWavelength: ppw, maxFrequencyHz: f, absorber: { kind: 'discrete', layers },
   };
-  const r = solveRoomAt(prepareRoom(model), f, now);
+  const r = new RoomProblem(model).solve(f, now);
   let worst = 0;
   r.receivers.forEach((rec, i) => {
     const p = receivers[i].position, dist = Math.hypot(p[0] - o, p[1] - o, p[2] - o), exact = (RHO * omega * Q) / (4 * Math.PI * dist);
@@ -182,12 +182,12 @@ function monopoleTable(now: Now): Omit<VerifyTable, 'seconds'> {
 
 // ---- (d) duct silencers ----
 
-function scenario(json: object): Prepared {
-  return prepareScenario(readScenario(JSON.stringify({ format: 'quietgrid/1', ...json })).scenario);
+function scenario(json: object): Problem {
+  return prepareProblem(readScenario(JSON.stringify({ format: 'quietgrid/1', ...json })).scenario);
 }
 
-function ductTl(p: Prepared, f: number, now: Now): { tl: number; balance: number } {
-  const r = solvePoint(p, f, now);
+function ductTl(p: Problem, f: number, now: Now): { tl: number; balance: number } {
+  const r = p.solve(f, now);
   if (r.kind !== 'duct' || r.tlDb === null) throw new Error('verify: expected a duct with an anechoic outlet');
   return { tl: r.tlDb, balance: r.energyBalance };
 }
@@ -204,7 +204,7 @@ function ductTable(now: Now): Omit<VerifyTable, 'seconds'> {
   for (const f of [50, 80, 125, 160, 190]) {
     const r = ductTl(chamber, f, now), theory = expansionChamberTl(9, (2 * Math.PI * f) / C, 0.5), d = Math.abs(r.tl - theory);
     rows.push(row(`expansion chamber m = 9, ${f} Hz: 3D ${db(r.tl)}, theory ${db(theory)}`, davis, '|ΔTL| < 1 dB (below half the cut-on)', d, db(d), d < 1));
-    chain = Math.max(chain, Math.abs(planeWaveEstimate(chamber, f)!.tlDb - theory));
+    chain = Math.max(chain, Math.abs(chamber.planeWave(f)!.tlDb - theory));
     balance = Math.max(balance, r.balance);
   }
   rows.push(row('expansion chamber: energy balance |1 − (W_r + W_t)/W_i|, worst', 'common practice: a lossless duct conserves power', '< 1e-3', balance, e2(balance), balance < 1e-3));
@@ -228,7 +228,7 @@ function ductTable(now: Now): Omit<VerifyTable, 'seconds'> {
   let stubChain = 0;
   for (const f of [250, 300, 350, 400]) {
     const k = (2 * Math.PI * f) / C, closed = closedSideBranchTl(0.2 * 0.15, w * 0.2, k, L);
-    stubChain = Math.max(stubChain, Math.abs(planeWaveEstimate(stub, f)!.tlDb - closed));
+    stubChain = Math.max(stubChain, Math.abs(stub.planeWave(f)!.tlDb - closed));
   }
   rows.push(row('closed stub: tl_plane_db (four-pole chain) vs the closed form, worst', 'Munjal (1987): shunt four-pole, Y_b = j(S_b/ρc)·tan kL', '< 1e-9 dB', stubChain, e2(stubChain), stubChain < 1e-9));
   const cut = cutOnFrequency(0.45, 0.3, C, 1, 0);
@@ -242,14 +242,14 @@ function porousTable(now: Now): Omit<VerifyTable, 'seconds'> {
   const rect = { y0: 0, y1: a, z0: 0, z1: a };
   for (const model of ['delany-bazley', 'miki'] as PorousModel[]) {
     const media = (f: number): (Medium | null)[] => [null, porousMedium(model, f, sigma, air)];
-    const prep = prepareDuct({
+    const prep = new DuctProblem({
       boxes: [{ x0: 0, x1: 1, y0: 0, y1: a, z0: 0, z1: a }, { x0: 1, x1: 1 + d, y0: 0, y1: a, z0: 0, z1: a }], media,
       openings: [{ side: '-x', rect: { a0: 0, a1: a, b0: 0, b1: a } }],
       inlet: { x: 0, rect, clearTo: 0.8 }, outlet: { x: 1 + d, rect, clearFrom: 1, termination: 'rigid' },
       soundSpeed: C, density: RHO, order: 4, pointsPerWavelength: 12, maxFrequencyHz: 2000, absorber: { kind: 'discrete', layers: 3 }, incident: { mode: [0, 0], amplitude: 1 },
     });
     for (const f of [250, 500, 1000, 2000]) {
-      const r = solveDuctAt(prep, f, now), alpha = normalIncidenceAbsorption(rigidBackedImpedance(porousWave(model, f, sigma, air), d), RHO * C);
+      const r = prep.solve(f, now), alpha = normalIncidenceAbsorption(rigidBackedImpedance(porousWave(model, f, sigma, air), d), RHO * C);
       const measured = 1 - r.inletReflection ** 2, diff = Math.abs(measured - alpha);
       rows.push(row(`${model}, ${f} Hz: α = ${alpha.toFixed(4)}, 1 − |R|² = ${measured.toFixed(4)}`, 'Allard & Atalla, Propagation of Sound in Porous Media, 2nd ed. (2009), ch. 2', '|Δα| < 1e-3', diff, e2(diff), diff < 1e-3));
     }

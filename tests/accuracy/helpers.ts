@@ -1,5 +1,7 @@
 import { readScenario, type NormalisedScenario } from '../../engine/scenario/index.ts';
-import { prepareScenario, solvePoint, type PointResult, type Prepared } from '../../engine/solve/scenario.ts';
+import { prepareProblem } from '../../engine/solve/prepare.ts';
+import type { Problem } from '../../engine/solve/problem.ts';
+import type { DuctPoint } from '../../engine/solve/points.ts';
 
 export const AIR = { soundSpeed: 343, density: 1.2 };
 
@@ -7,12 +9,12 @@ export function normalised(scenario: object): NormalisedScenario {
   return readScenario(JSON.stringify({ format: 'quietgrid/1', ...scenario })).scenario;
 }
 
-export function prepare(scenario: object): Prepared {
-  return prepareScenario(normalised(scenario));
+export function prepare(scenario: object): Problem {
+  return prepareProblem(normalised(scenario));
 }
 
-export function ductPoint(p: Prepared, f: number): Extract<PointResult, { kind: 'duct' }> {
-  const r = solvePoint(p, f, () => performance.now());
+export function ductPoint(p: Problem, f: number): DuctPoint {
+  const r = p.solve(f, () => performance.now());
   if (r.kind !== 'duct') throw new Error('not a duct');
   return r;
 }

@@ -1,7 +1,7 @@
 // The cost shown before a run (app/renderer/model/estimate.ts): memory per worker is what a worker
 // holds (MeshInfo.workerMemoryBytes), time scales with the frequencies each worker takes.
 import { describe, expect, it } from 'vitest';
-import type { MeshInfo } from '../../engine/solve/scenario.ts';
+import type { MeshInfo } from '../../engine/solve/problem.ts';
 import { defaultWorkers, estimateRun, predictedSecondsPerFrequency, recalibrate } from '../../app/renderer/model/estimate.ts';
 
 const INFO: MeshInfo = { order: 4, pointsPerWavelength: 6, topFrequencyHz: 500, absorberKind: 'discrete', layers: 3, elements: 10, dofs: 100, nnz: 1000, factorNonzeros: 500, factorFlops: 1e9, memoryEstimateBytes: 1e6, workerMemoryBytes: 3e6 };

@@ -1,8 +1,8 @@
 // The renderer's worker traffic with fake workers: the run pool (queue, streaming, cancel, crashes),
 // the run state it drives, the estimate worker's superseding, and the field worker's latest-slice rule.
 import { describe, expect, it } from 'vitest';
-import type { MeshInfo } from '../../engine/solve/scenario.ts';
-import type { PointAccuracy } from '../../engine/solve/accuracy.ts';
+import type { MeshInfo } from '../../engine/solve/problem.ts';
+import type { PointAccuracy } from '../../engine/solve/points.ts';
 import { transferOf, type AccuracyInfo, type AssessedPoint, type FromWorker, type Slice, type ToWorker, type WorkerPort } from '../../app/renderer/protocol.ts';
 import { runPool, type PoolEvents } from '../../app/renderer/services/pool.ts';
 import { createEstimator } from '../../app/renderer/services/estimator.ts';

@@ -5,7 +5,8 @@ import { join } from 'node:path';
 import { performance } from 'node:perf_hooks';
 import { solveFrequencies, type PoolOutcome } from '../../engine/node/pool.ts';
 import { readScenario, type NormalisedScenario } from '../../engine/scenario/index.ts';
-import { prepareScenario, solvePoint, type PointResult } from '../../engine/solve/scenario.ts';
+import { prepareProblem } from '../../engine/solve/prepare.ts';
+import type { PointResult } from '../../engine/solve/points.ts';
 import { ROOT } from './helpers.ts';
 
 const FAKE = new URL('./fixtures/fake-worker.mjs', import.meta.url);
@@ -91,9 +92,9 @@ describe('worker pool (real worker)', () => {
     const out = await solveFrequencies(scenario, freqs, { workers: 2, keepFields: true }).done;
     expect(out.workers).toBe(2);
     expect(out.failures).toEqual([]);
-    const prepared = prepareScenario(scenario);
+    const prepared = prepareProblem(scenario);
     for (const f of freqs) {
-      const here = solvePoint(prepared, f, () => performance.now(), true) as PointResult & { kind: 'duct' };
+      const here = prepared.solve(f, () => performance.now(), true) as PointResult & { kind: 'duct' };
       const there = out.results.find((r) => r.frequencyHz === f) as PointResult & { kind: 'duct' };
       expect(there.tlDb).toBe(here.tlDb);
       expect(there.field!.re).toEqual(here.field!.re);

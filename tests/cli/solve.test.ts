@@ -24,7 +24,7 @@ function readTable(path: string): { header: string[]; rows: string[][] } {
 
 const DUCT_HEADER = ['frequency_hz', 'tl_db', 'tl_decomposition_db', 'inlet_reflection', 'inlet_absorption', 'energy_balance', 'method', 'reflection_estimate', 'order_check_db', 'tl_plane_db', 'flags'];
 const ROOM_ACCURACY = ['reflection_estimate', 'order_check_db', 'flags'];
-const FLAGS = ['layer_reflection', 'energy', 'order', 'plane_wave_invalid'];
+const FLAGS = ['layer_reflection', 'energy', 'order', 'plane_wave_invalid', 'not_passive', 'not_finite', 'near_singular'];
 const BAND_HEADER = ['band_hz', 'band_low_hz', 'band_high_hz', 'bandwidth', 'points'];
 const SUMMARY_FIELDS = ['title', 'kind', 'dofs', 'nnz', 'order', 'layers', 'absorberKind', 'elements', 'factorNonzeros', 'memoryEstimateBytes', 'workerMemoryBytes', 'peakMemoryBytes',
   'cutOnHz', 'timing', 'defaultsUsed', 'warnings', 'frequenciesHz', 'failures', 'accuracy', 'cautions', 'conventions'];

@@ -25,7 +25,7 @@ describe('quietgrid verify', () => {
       expect(Number.isFinite(r.value)).toBe(true);
     }
     expect(run.stderr).toMatch(/verify: porous done in/);
-  });
+  }, 600_000); // the whole suite: about a minute alone, several on a busy machine
 
   it('prints a table per group, with pass or FAIL per row and a closing count', async () => {
     const run = await quietgrid('verify', '--only', 'pade');

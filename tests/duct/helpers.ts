@@ -1,12 +1,14 @@
 import { readScenario } from '../../engine/scenario/index.ts';
-import { prepareScenario, solvePoint, type Prepared, type PointResult } from '../../engine/solve/scenario.ts';
+import { prepareProblem } from '../../engine/solve/prepare.ts';
+import type { Problem } from '../../engine/solve/problem.ts';
+import type { DuctPoint } from '../../engine/solve/points.ts';
 
-export function prepare(scenario: object): Prepared {
-  return prepareScenario(readScenario(JSON.stringify({ format: 'quietgrid/1', ...scenario })).scenario);
+export function prepare(scenario: object): Problem {
+  return prepareProblem(readScenario(JSON.stringify({ format: 'quietgrid/1', ...scenario })).scenario);
 }
 
-export function duct(p: Prepared, f: number): Extract<PointResult, { kind: 'duct' }> {
-  const r = solvePoint(p, f, () => performance.now());
+export function duct(p: Problem, f: number): DuctPoint {
+  const r = p.solve(f, () => performance.now());
   if (r.kind !== 'duct') throw new Error('not a duct');
   return r;
 }

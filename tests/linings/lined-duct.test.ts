@@ -4,7 +4,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import { formatIssues, validateScenario } from '../../engine/scenario/index.ts';
-import { prepareScenario, solvePoint } from '../../engine/solve/scenario.ts';
+import { prepareProblem } from '../../engine/solve/prepare.ts';
 
 const air = { soundSpeed: 343, density: 1.2 };
 
@@ -15,10 +15,10 @@ function tlOf(lining: { thickness: number; flowResistivity: number } | null, fre
     linings: lining === null ? [] : [{ section: 'lined', faces: ['+y', '-y'], thickness: lining.thickness, material: { model: 'miki', flowResistivity: lining.flowResistivity } }],
   });
   if (!r.ok) throw new Error(formatIssues(r.errors));
-  const p = prepareScenario(r.scenario);
+  const p = prepareProblem(r.scenario);
   let passive = true;
   const tl = frequencies.map((f) => {
-    const point = solvePoint(p, f, () => performance.now());
+    const point = p.solve(f, () => performance.now());
     if (point.kind !== 'duct') throw new Error('expected a duct');
     passive &&= point.reflectedPower + point.transmittedPower <= point.incidentPower * (1 + 1e-6);
     return point.tlDb!;

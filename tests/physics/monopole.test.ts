@@ -9,7 +9,7 @@
  * the local error of the point-source singularity (a few per cent there), which is not what this checks.
  */
 import { describe, expect, it } from 'vitest';
-import { prepareRoom, solveRoomAt, type RoomModel } from '../../engine/solve/room.ts';
+import { RoomProblem, type RoomModel } from '../../engine/solve/room.ts';
 import type { AbsorberKind } from '../../engine/assembly/layers.ts';
 
 const c = 343, rho = 1.2, f = 343, omega = 2 * Math.PI * f, Q = 1e-3, L = 0.8; // λ = 1 m, box 0.8 λ
@@ -28,7 +28,7 @@ function worstError(lowSide: boolean, ppw: number, layers: number, kind: Absorbe
     sources: [{ name: 'Q', position: [o, o, o], volumeVelocity: Q / 8 }], receivers, // an eighth of the source's volume velocity flows into the octant
     soundSpeed: c, density: rho, order: 4, pointsPerWavelength: ppw, maxFrequencyHz: f, absorber: { kind, layers },
   };
-  const r = solveRoomAt(prepareRoom(model), f, () => performance.now());
+  const r = new RoomProblem(model).solve(f, () => performance.now());
   let worst = 0;
   r.receivers.forEach((rec, i) => {
     const p = receivers[i].position, dist = Math.hypot(p[0] - o, p[1] - o, p[2] - o);

@@ -82,14 +82,14 @@ describe('validator under random and mutated input', () => {
 
 describe('size guard', () => {
   it('refuses a scenario far larger than intended, naming the numbers and the levers, before allocating anything', async () => {
-    const { prepareScenario } = await import('../../engine/solve/scenario.ts');
+    const { prepareProblem } = await import('../../engine/solve/prepare.ts');
     const { ProblemTooLarge } = await import('../../engine/solve/size.ts');
     const r = validateScenario({ ...demos.find((d) => d.duct)!, sweep: { frequenciesHz: [100] } });
     if (!r.ok) throw new Error('demo invalid');
     const s = structuredClone(r.scenario);
     if (s.kind !== 'duct') throw new Error('not a duct');
     s.duct.sections[0].length = 4e11; // metres typed for millimetres, many times over
-    expect(() => prepareScenario(s)).toThrow(ProblemTooLarge);
-    expect(() => prepareScenario(s)).toThrow(/unknowns .* check the lengths are in metres.*--yes/);
+    expect(() => prepareProblem(s)).toThrow(ProblemTooLarge);
+    expect(() => prepareProblem(s)).toThrow(/unknowns .* check the lengths are in metres.*--yes/);
   });
 });

@@ -1,22 +1,23 @@
 /** Rooms through the scenario path: a free field (all six walls open) and a closed rigid room. */
 import { describe, expect, it } from 'vitest';
 import { readScenario } from '../../engine/scenario/index.ts';
-import { prepareScenario, solvePoint, type Prepared } from '../../engine/solve/scenario.ts';
+import { prepareProblem } from '../../engine/solve/prepare.ts';
+import type { Problem } from '../../engine/solve/problem.ts';
 import { SolverFailure } from '../../engine/solve/linear.ts';
 
 const c = 343, rho = 1.2;
 const now = () => performance.now();
 
-function room(size: number[], walls: string, sources: object[], receivers: object[], f: number[], ppw = 8, layers = 2): Prepared {
+function room(size: number[], walls: string, sources: object[], receivers: object[], f: number[], ppw = 8, layers = 2): Problem {
   const w = Object.fromEntries(['x-', 'x+', 'y-', 'y+', 'z-', 'z+'].map((k) => [k, walls]));
-  return prepareScenario(readScenario(JSON.stringify({
+  return prepareProblem(readScenario(JSON.stringify({
     format: 'quietgrid/1', air: { soundSpeed: c, density: rho }, sweep: { frequenciesHz: f }, mesh: { order: 4, pointsPerWavelength: ppw }, absorber: { layers },
     room: { size, walls: w, sources, receivers },
   })).scenario);
 }
 
-function spl(p: Prepared, f: number): { re: number; im: number }[] {
-  const r = solvePoint(p, f, now);
+function spl(p: Problem, f: number): { re: number; im: number }[] {
+  const r = p.solve(f, now);
   if (r.kind !== 'room') throw new Error('not a room');
   return r.receivers.map((x) => x.pressure);
 }

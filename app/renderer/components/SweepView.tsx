@@ -1,5 +1,5 @@
 /** Sweep and mesh: which frequencies, how fine a mesh, and what that costs before anything runs. */
-import type { MeshInfo } from '../../../engine/solve/scenario.ts';
+import type { MeshInfo } from '../../../engine/solve/problem.ts';
 import { getAt, parseFrequencyList, sweepForm, type SweepForm } from '../model/draft.ts';
 import { estimateRun, type RunEstimate } from '../model/estimate.ts';
 import { formatBytes, formatHz, formatNumber, formatSeconds } from '../model/units.ts';

@@ -3,7 +3,7 @@
  * time from the factorisation's operation count and the matrix size, scaled by what this machine
  * measured on its last run (a single factor kept between sessions).
  */
-import type { MeshInfo } from '../../../engine/solve/scenario.ts';
+import type { MeshInfo } from '../../../engine/solve/problem.ts';
 
 /** Rough costs of a plain-JavaScript frontal factorisation and assembly on one core (measured on the demos). */
 const SECONDS_PER_FLOP = 1e-9;

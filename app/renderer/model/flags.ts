@@ -4,7 +4,7 @@
  * inlet quantities a passive duct cannot produce. 'plane_wave_invalid' is not a doubt about the 3D
  * result (only about the plane-wave estimate beside it), so it does not mark a point.
  */
-import type { PointResult } from '../../../engine/solve/scenario.ts';
+import type { PointResult } from '../../../engine/solve/points.ts';
 import { formatNumber } from './units.ts';
 
 /** Used only when a point carries no accuracy of its own. */

@@ -3,8 +3,8 @@
  * reports. The fields themselves are not here (they go to the field worker); only which were kept.
  */
 import type { Issue, NormalisedScenario } from '../../../engine/scenario/index.ts';
-import type { MeshInfo } from '../../../engine/solve/scenario.ts';
-import type { PointAccuracy } from '../../../engine/solve/accuracy.ts';
+import type { MeshInfo } from '../../../engine/solve/problem.ts';
+import type { PointAccuracy } from '../../../engine/solve/points.ts';
 import type { AccuracyInfo, AssessedPoint } from '../protocol.ts';
 import type { DuctMode } from '../../../engine/acoustics/index.ts';
 

@@ -3,7 +3,7 @@
  * factorisation) in a worker of its own, a moment after the last edit. A request that comes while an
  * older one is still being prepared replaces it: the busy worker is terminated, a fresh one started.
  */
-import type { MeshInfo } from '../../../engine/solve/scenario.ts';
+import type { MeshInfo } from '../../../engine/solve/problem.ts';
 import { send, type WorkerPort } from '../protocol.ts';
 import { createStore, type Store } from '../store/store.ts';
 

@@ -6,8 +6,8 @@
  * is solved. Cancel terminates every worker at once (no waiting for a frequency to finish) and keeps what
  * has finished. A worker that dies loses only its current job and is replaced, but not forever.
  */
-import type { MeshInfo } from '../../../engine/solve/scenario.ts';
-import type { PointAccuracy } from '../../../engine/solve/accuracy.ts';
+import type { MeshInfo } from '../../../engine/solve/problem.ts';
+import type { PointAccuracy } from '../../../engine/solve/points.ts';
 import { send, type AccuracyInfo, type AssessedPoint, type FromWorker, type SectionCutOns, type WorkerPort } from '../protocol.ts';
 
 export interface PoolEvents {
