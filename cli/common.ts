@@ -11,9 +11,8 @@ import { estimateSize, LARGE_PROBLEM_DOFS, ProblemTooLarge } from '../engine/sol
 import { describeFileError, readTextFile, writeFileAtomicIn } from '../engine/node/files.ts';
 import { prepareProblem } from '../engine/solve/prepare.ts';
 import type { Problem } from '../engine/solve/problem.ts';
-import type { PointAccuracy, PointResult } from '../engine/solve/points.ts';
-import { buildReport, tableCsv, type ReportFailure, type Summary } from '../engine/report/results.ts';
-import { ACCURACY_READING, FLAG_MEANINGS, THRESHOLDS, withOrderCheck } from '../engine/solve/assess.ts';
+import type { PointResult } from '../engine/solve/points.ts';
+import { buildReport, tableCsv, type ReportInput, type Summary } from '../engine/report/results.ts';
 import { fieldToVtu } from '../engine/report/vtk.ts';
 import { dofCoordinates } from '../engine/grid/mesh.ts';
 
@@ -62,7 +61,8 @@ export function scenarioPath(command: string, positionals: string[]): string {
   return positionals[0];
 }
 
-export interface Loaded { path: string; scenario: NormalisedScenario; warnings: Issue[] }
+/** value: the file's value as parsed (what workers are sent: each validates it itself). */
+export interface Loaded { path: string; value: unknown; scenario: NormalisedScenario; warnings: Issue[] }
 
 /** Reads, parses and validates; every problem becomes a UsageError naming the file, the field and the fix. */
 export async function loadScenario(path: string): Promise<Loaded> {
@@ -84,7 +84,7 @@ export async function loadScenario(path: string): Promise<Loaded> {
     const n = result.errors.length;
     throw new UsageError(`${path}: the scenario has ${n} error${n === 1 ? '' : 's'}:\n${formatIssues(result.errors)}`);
   }
-  return { path, scenario: result.scenario, warnings: result.warnings };
+  return { path, value, scenario: result.scenario, warnings: result.warnings };
 }
 
 export function topFrequency(s: NormalisedScenario): number {
@@ -145,39 +145,9 @@ export function peakMemoryBytes(): number {
   return process.resourceUsage().maxRSS * 1024;
 }
 
-export interface RunRecord {
-  loaded: Loaded;
-  prepared: Problem;
-  points: PointResult[];
-  frequenciesHz: number[];
-  failures: ReportFailure[];
-  totalSeconds: number;
-  notes?: string[];
-  /** The order-check solves at p + 1 (matched to points by frequency), and those that failed. */
-  checks?: PointResult[];
-  checkFailures?: ReportFailure[];
-}
-
-/** Each point with its accuracy figures and flags (the order check where a p + 1 solve of the same frequency exists). */
-export function assessPoints(prepared: Problem, points: readonly PointResult[], checks: readonly PointResult[] = []): (PointResult & { accuracy: PointAccuracy })[] {
-  return points.map((p) => {
-    const a = p.accuracy ?? prepared.assess(p), finer = checks.find((c) => c.frequencyHz === p.frequencyHz);
-    return { ...p, accuracy: finer ? withOrderCheck(a, p, finer) : a };
-  });
-}
-
 /** spectrum.csv, bands.csv and summary.json in `dir`, each written atomically. */
-export async function writeReport(dir: string, run: RunRecord): Promise<{ files: string[]; summary: Summary }> {
-  const { scenario, warnings } = run.loaded;
-  const checks = run.checks ?? [];
-  const report = buildReport({
-    scenario, info: run.prepared.info, cutOns: run.prepared.cutOns(run.prepared.info.topFrequencyHz), points: assessPoints(run.prepared, run.points, checks),
-    frequenciesHz: run.frequenciesHz, failures: run.failures, warnings, totalSeconds: run.totalSeconds, peakMemoryBytes: peakMemoryBytes(), notes: run.notes,
-    accuracy: {
-      reading: ACCURACY_READING, flagMeanings: FLAG_MEANINGS, thresholds: THRESHOLDS, planeWaveValidBelowHz: run.prepared.describe().planeWaveValidBelowHz,
-      orderCheckedHz: checks.map((c) => c.frequencyHz).filter((f) => run.points.some((p) => p.frequencyHz === f)), orderCheckFailures: run.checkFailures,
-    },
-  });
+export async function writeReport(dir: string, input: ReportInput): Promise<{ files: string[]; summary: Summary }> {
+  const report = buildReport(input);
   const files = [join(dir, 'spectrum.csv'), join(dir, 'bands.csv'), join(dir, 'summary.json')];
   await writeFileAtomicIn(files[0], tableCsv(report.spectrum));
   await writeFileAtomicIn(files[1], tableCsv(report.bands));

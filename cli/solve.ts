@@ -3,16 +3,17 @@
  * spectrum.csv, bands.csv and summary.json; optionally the fields as .vtu files.
  */
 import { performance } from 'node:perf_hooks';
-import type { PointResult } from '../engine/solve/points.ts';
 import type { Problem } from '../engine/solve/problem.ts';
-import { defaultWorkerCount, solveFrequencies, type PointFailure, type PoolOutcome } from '../engine/node/pool.ts';
+import { nodeWorkerCount, solveSweep } from '../engine/node/pool.ts';
+import { orderCheckFrequencies as checkFrequencies } from '../engine/sweep/plan.ts';
+import { emptyRecord, recordEvent, reportInput, type SweepRecord } from '../engine/sweep/record.ts';
+import type { SweepEvent, SweepOutcome } from '../engine/sweep/scheduler.ts';
 import {
   prepareGuarded,
   EXIT_FAILED, EXIT_INTERRUPTED, EXIT_OK, UsageError, defaultOutDir, describeDefaults, describeWarnings, fieldWriter, hz, loadScenario,
-  megabytes, parseFrequencyList, parseOptions, parseWorkers, scenarioPath, writeReport, type Io, type Loaded,
+  megabytes, parseFrequencyList, parseOptions, parseWorkers, peakMemoryBytes, scenarioPath, writeReport, type Io, type Loaded,
 } from './common.ts';
 import { Progress } from './progress.ts';
-import { defaultOrderCheckFrequencies } from '../engine/sweep/plan.ts';
 
 export const SOLVE_HELP = `Usage: quietgrid solve SCENARIO.json [options]
 
@@ -62,8 +63,7 @@ const OPTIONS = {
 /** The frequencies of the order check at p + 1: all, none, or by default at most three. */
 export function orderCheckFrequencies(frequencies: readonly number[], all: boolean | undefined, none: boolean | undefined): number[] {
   if (all && none) throw new UsageError('--check-order and --no-check-order contradict each other: give one of them (or neither, for the default of at most three frequencies)');
-  if (none) return [];
-  return all ? [...frequencies] : defaultOrderCheckFrequencies(frequencies);
+  return checkFrequencies(frequencies, none ? 'none' : all ? 'all' : 'default');
 }
 
 export async function solveCommand(args: string[], io: Io): Promise<number> {
@@ -76,27 +76,24 @@ export async function solveCommand(args: string[], io: Io): Promise<number> {
   const frequencies = values.frequencies !== undefined ? parseFrequencyList(values.frequencies, loaded.scenario) : [...loaded.scenario.sweep.frequenciesHz];
   const requestedWorkers = parseWorkers(values.workers);
   const checks = orderCheckFrequencies(frequencies, values['check-order'], values['no-check-order']);
-  const prepared = prepareGuarded(loaded, values.yes === true);
-  describeRun(loaded, prepared, io);
-  const jobs = frequencies.length + checks.length;
-  const workers = requestedWorkers ?? defaultWorkerCount(jobs, prepared.info.workerMemoryBytes);
-  io.out(`Solving ${frequencies.length} frequenc${frequencies.length === 1 ? 'y' : 'ies'} (${hz(frequencies[0])}–${hz(frequencies[frequencies.length - 1])} Hz) ${Math.min(workers, jobs) > 1 ? `in ${Math.min(workers, jobs)} worker threads` : 'in the main thread'}`);
+  const problem = prepareGuarded(loaded, values.yes === true);
+  describeRun(loaded, problem, io);
+  const workers = Math.min(requestedWorkers ?? nodeWorkerCount(frequencies.length, problem.info.workerMemoryBytes), frequencies.length);
+  io.out(`Solving ${frequencies.length} frequenc${frequencies.length === 1 ? 'y' : 'ies'} (${hz(frequencies[0])}–${hz(frequencies[frequencies.length - 1])} Hz) ${workers > 1 ? `in ${workers} worker threads` : 'in the main thread'}`);
   io.out(checks.length === 0
     ? 'Order check: off (--no-check-order)'
-    : `Order check: ${checks.length === frequencies.length && checks.length > 3 ? 'every frequency' : checks.map(hz).join(', ') + ' Hz'} again at order ${prepared.info.order + 1} (--check-order for every frequency, --no-check-order for none)`);
+    : `Order check: ${checks.length === frequencies.length && checks.length > 3 ? 'every frequency' : checks.map(hz).join(', ') + ' Hz'} again at order ${problem.info.order + 1} (--check-order for every frequency, --no-check-order for none)`);
   const start = performance.now();
-  const { outcome, fieldError } = await sweep(loaded, prepared, frequencies, checks, workers, values.fields);
+  const { record, outcome, fieldError } = await sweep(loaded, problem, frequencies, checks, workers, values.fields);
   const dir = values.out ?? defaultOutDir(loaded.path);
-  const failures: PointFailure[] = [...outcome.failures, ...outcome.unsolved.map((f) => ({ frequencyHz: f, message: 'not solved: the run was stopped' }))];
-  const { files, summary } = await writeReport(dir, {
-    loaded, prepared, points: outcome.results, frequenciesHz: frequencies, failures, totalSeconds: (performance.now() - start) / 1000,
-    checks: outcome.checks, checkFailures: outcome.checkFailures,
-  });
+  const input = reportInput(record, { totalSeconds: (performance.now() - start) / 1000, peakMemoryBytes: peakMemoryBytes() });
+  if (!input) throw new Error('no worker could describe the problem'); // prepareGuarded prepared it here already
+  const { files, summary } = await writeReport(dir, input);
   io.out(`Wrote ${files.join(', ')}${values.fields !== undefined && !fieldError ? `, and the fields in ${values.fields}` : ''}`);
   for (const line of describeFlags(summary.accuracy.flagsByFrequency)) io.out(line);
-  for (const f of outcome.checkFailures) io.err(`quietgrid: warning: the order check at ${hz(f.frequencyHz)} Hz failed (the result there stands, unchecked): ${f.message}`);
+  for (const c of record.checks) if (c.status === 'failed') io.err(`quietgrid: warning: the order check at ${hz(c.frequencyHz)} Hz failed (the result there stands, unchecked): ${c.message}`);
   if (fieldError) io.err(`quietgrid: cannot write the field files: ${fieldError}`);
-  return fieldError ? Math.max(EXIT_FAILED, finalStatus(outcome, io)) : finalStatus(outcome, io);
+  return fieldError ? Math.max(EXIT_FAILED, finalStatus(record, outcome, io)) : finalStatus(record, outcome, io);
 }
 
 /** One line per flagged frequency, or one saying none fired. */
@@ -110,52 +107,54 @@ export function describeFlags(byFrequency: readonly { frequencyHz: number; flags
 }
 
 
-function describeRun(loaded: Loaded, prepared: Problem, io: Io): void {
-  const { scenario: s } = loaded, i = prepared.info;
+function describeRun(loaded: Loaded, problem: Problem, io: Io): void {
+  const { scenario: s } = loaded, i = problem.info;
   io.out(`Scenario: ${s.title} (${s.kind})`);
   io.out(`Mesh: order ${i.order}, ${i.elements} elements, ${i.dofs} dofs, ${i.layers} absorbing layers (${i.absorberKind}), graded for ${hz(i.topFrequencyHz)} Hz at ${i.pointsPerWavelength} points per wavelength`);
   io.out(`Solver: ${i.nnz} matrix entries, ${i.factorNonzeros} factor entries; memory about ${megabytes(i.workerMemoryBytes)} per worker, of which the factor ${megabytes(i.memoryEstimateBytes)}`);
   for (const line of [...describeDefaults(s), ...describeWarnings(loaded.warnings)]) io.out(line);
 }
 
-/** Runs the pool with progress on stderr, Ctrl-C as cancel, and fields written as they arrive. */
-async function sweep(loaded: Loaded, prepared: Problem, frequencies: number[], checks: number[], workers: number, fieldsDir: string | undefined): Promise<{ outcome: PoolOutcome; fieldError?: string }> {
+/** Runs the sweep with progress on stderr, Ctrl-C as cancel, and fields written as they arrive; the run's record at the end. */
+async function sweep(loaded: Loaded, problem: Problem, frequencies: number[], checks: number[], workers: number, fieldsDir: string | undefined): Promise<{ record: SweepRecord; outcome: SweepOutcome; fieldError?: string }> {
   const progress = new Progress(frequencies.length + checks.length, process.stderr, () => performance.now());
-  const writeField = fieldsDir !== undefined ? fieldWriter(fieldsDir, prepared) : undefined;
-  let fieldWrites: Promise<unknown> = Promise.resolve(), fieldError: string | undefined;
-  const onResult = (point: PointResult) => {
-    progress.solved(point);
-    if (!writeField) return;
-    // One field file at a time, and the field dropped once written: a sweep keeps no fields in memory.
-    fieldWrites = fieldWrites.then(() => writeField(point)).then(() => { point.field = undefined; }, (e: unknown) => {
-      point.field = undefined;
-      fieldError ??= e instanceof Error ? e.message : String(e);
-    });
+  const writeField = fieldsDir !== undefined ? fieldWriter(fieldsDir, problem) : undefined;
+  let record = emptyRecord(performance.now()), fieldWrites: Promise<unknown> = Promise.resolve(), fieldError: string | undefined;
+  const onEvent = (e: SweepEvent) => {
+    record = recordEvent(record, e);
+    if (e.type === 'result') {
+      progress.solved(e.point);
+      // One field file at a time; the record keeps no fields, so a written one goes with its event.
+      const point = e.point;
+      if (writeField) fieldWrites = fieldWrites.then(() => writeField(point)).catch((err: unknown) => { fieldError ??= err instanceof Error ? err.message : String(err); });
+    } else if (e.type === 'failure') progress.failed(e.frequencyHz, e.message);
+    else if (e.type === 'checked') progress.checked(e.point, problem.info.order + 1);
+    else if (e.type === 'check-failure') progress.checkFailed(e.frequencyHz, e.message);
   };
-  const run = solveFrequencies(loaded.scenario, frequencies, {
-    workers, prepared, keepFields: writeField !== undefined, onResult, onFailure: (f) => progress.failed(f.frequencyHz, f.message),
-    checkFrequencies: checks, onCheck: (p) => progress.checked(p, prepared.info.order + 1), onCheckFailure: (f) => progress.checkFailed(f.frequencyHz, f.message),
+  const run = solveSweep({
+    scenario: loaded.value, plan: frequencies, checkHz: checks, workers, keepFields: writeField !== undefined, allowLarge: true, preset: problem, onEvent,
   });
   const onInterrupt = () => run.cancel();
   process.once('SIGINT', onInterrupt);
   try {
     const outcome = await run.done;
     await fieldWrites;
-    return { outcome, fieldError };
+    return { record, outcome, fieldError };
   } finally {
     process.removeListener('SIGINT', onInterrupt);
     progress.finish();
   }
 }
 
-function finalStatus(outcome: PoolOutcome, io: Io): number {
+function finalStatus(record: SweepRecord, outcome: SweepOutcome, io: Io): number {
+  const failed = record.frequencies.filter((s) => s.status === 'failed'), unsolved = record.frequencies.filter((s) => s.status === 'unsolved');
   if (outcome.cancelled) {
-    io.err(`Stopped: ${outcome.results.length} frequencies solved and written, ${outcome.unsolved.length} not solved.`);
+    io.err(`Stopped: ${record.points.length} frequencies solved and written, ${unsolved.length} not solved.`);
     return EXIT_INTERRUPTED;
   }
-  if (outcome.failures.length > 0) {
-    for (const f of outcome.failures) io.err(`quietgrid: the solve failed at ${hz(f.frequencyHz)} Hz: ${f.message}`);
-    io.err(`${outcome.failures.length} of ${outcome.failures.length + outcome.results.length} frequencies failed; the others are written, the failures listed in summary.json.`);
+  if (failed.length > 0) {
+    for (const f of failed) io.err(`quietgrid: the solve failed at ${hz(f.frequencyHz)} Hz: ${f.message}`);
+    io.err(`${failed.length} of ${failed.length + record.points.length} frequencies failed; the others are written, the failures listed in summary.json.`);
     return EXIT_FAILED;
   }
   return EXIT_OK;

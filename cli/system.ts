@@ -5,9 +5,14 @@
 import { performance } from 'node:perf_hooks';
 import { readMatrixMarketVector, relativeResidual, writeMatrixMarket, writeMatrixMarketVector } from '../engine/linalg/index.ts';
 import { describeFileError, readTextFile, writeFileAtomicIn } from '../engine/node/files.ts';
+import { describeSweep } from '../engine/sweep/job.ts';
+import { recordOf, reportInput, type SweepRecord } from '../engine/sweep/record.ts';
+import type { SweepDescription } from '../engine/sweep/protocol.ts';
+import type { SweepEvent } from '../engine/sweep/scheduler.ts';
+import type { AssessedPoint } from '../engine/solve/points.ts';
 import {
   prepareGuarded,
-  EXIT_OK, UsageError, defaultOutDir, fieldWriter, hz, loadScenario, parseFrequency, parseOptions, scenarioPath, writeReport, type Io,
+  EXIT_OK, UsageError, defaultOutDir, fieldWriter, hz, loadScenario, parseFrequency, parseOptions, peakMemoryBytes, scenarioPath, writeReport, type Io,
 } from './common.ts';
 
 const ROUND_TRIP = `Round trip with another solver:
@@ -103,13 +108,27 @@ export async function importCommand(args: string[], io: Io): Promise<number> {
   const residual = relativeResidual(A, x, b);
   io.out(`Read ${values.solution}: ${p.info.dofs} unknowns; relative residual ‖Ax − b‖/‖b‖ = ${residual.toExponential(2)}`);
   if (!(residual <= RESIDUAL_WARNING)) io.err(`quietgrid: warning: the residual ${residual.toExponential(2)} is large: was the system exported from ${loaded.path} at ${hz(f)} Hz, and did the other solver converge?`);
-  const point = { ...p.results(f, x), field: x };
+  // the external solve's cost is unknown here; its residual is what was just measured
+  const solved = p.results(f, x, { assembleSeconds: 0, factorSeconds: 0, solveSeconds: 0, perturbedPivots: 0, residual });
+  const point = { ...solved, accuracy: p.assess(solved) };
   const notes = [`Solution imported from ${values.solution}, relative residual ${residual.toExponential(3)}; the timings do not include the external solve.`];
   const dir = values.out ?? defaultOutDir(loaded.path);
-  const { files } = await writeReport(dir, { loaded, prepared: p, points: [point], frequenciesHz: [f], failures: [], totalSeconds: (performance.now() - start) / 1000, notes });
-  if (values.fields !== undefined) files.push((await fieldWriter(values.fields, p)(point))!);
+  const record = importedRecord(describeSweep(loaded.scenario, loaded.warnings, p), point);
+  const { files } = await writeReport(dir, reportInput(record, { totalSeconds: (performance.now() - start) / 1000, peakMemoryBytes: peakMemoryBytes(), notes })!);
+  if (values.fields !== undefined) files.push((await fieldWriter(values.fields, p)({ ...point, field: x }))!);
   io.out(`Wrote ${files.join(', ')}`);
   return EXIT_OK;
+}
+
+/** The record of a one-frequency run whose solve happened elsewhere: the same events a sweep reports. */
+function importedRecord(description: SweepDescription, point: AssessedPoint): SweepRecord {
+  const events: SweepEvent[] = [
+    { type: 'queued', frequenciesHz: [point.frequencyHz], checkHz: [], at: 0 },
+    { type: 'ready', description, prepareSeconds: 0, at: 0 },
+    { type: 'result', point, at: 0 },
+    { type: 'done', cancelled: false, unsolved: [], at: 0 },
+  ];
+  return recordOf(events, 0);
 }
 
 async function readSolution(path: string, dofs: number) {

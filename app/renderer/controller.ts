@@ -7,13 +7,14 @@ import { tableCsv } from '../../engine/report/results.ts';
 import type { MenuCommand } from '../shared/bridge.ts';
 import { DEFAULT_DEMO, demoById } from './model/demos.ts';
 import { isObject, type Draft, type Json } from './model/draft.ts';
-import { recalibrate } from './model/estimate.ts';
+import { recalibrate, runWorkers } from './model/estimate.ts';
 import { sliceCsv, type Quantity } from './model/field.ts';
 import { bandTable, runReport } from './model/report.ts';
 import { IDLE_RUN, isActive, type RunState } from './model/run.ts';
 import { runBlocker } from './model/scenario.ts';
 import type { LengthUnit } from './model/units.ts';
-import type { Axis, Slice, WorkerPort } from './protocol.ts';
+import type { AxisIndex } from '../../engine/core/space.ts';
+import type { Slice, WorkerPort } from '../../engine/sweep/protocol.ts';
 import { createEditor, draftText, type Editor, type KeyValueStorage } from './store/editor.ts';
 import { createStore, type Store } from './store/store.ts';
 import { createEstimator, type Estimator } from './services/estimator.ts';
@@ -43,7 +44,7 @@ export interface UiState {
 
 export interface FieldViewState {
   frequencyHz: number | null;
-  axis: Axis;
+  axis: AxisIndex;
   /** m along the axis; null: the middle of the geometry. */
   position: number | null;
   quantity: Quantity;
@@ -127,10 +128,11 @@ export function createController(env: Environment): Controller {
   const runner: Runner = createRunner({
     store: run, fields, createWorker: env.createWorker, now: env.now,
     onFinished: (r) => {
-      const times = r.frequencies.flatMap((s) => (s.status === 'done' && s.seconds !== undefined ? [s.seconds] : []));
-      if (r.info && times.length > 0) {
+      const times = r.record.frequencies.flatMap((s) => (s.status === 'done' && s.seconds !== undefined ? [s.seconds] : []));
+      const info = r.record.description?.problem.info;
+      if (info && times.length > 0) {
         // Per worker, one frequency's wall time is what the estimate predicts.
-        calibration = recalibrate(calibration, r.info, times.reduce((a, b) => a + b, 0) / times.length);
+        calibration = recalibrate(calibration, info, times.reduce((a, b) => a + b, 0) / times.length);
         env.storage.setItem(CALIBRATION_KEY, String(calibration));
       }
       if (r.message) notify(r.status === 'done' && !r.message.includes('failed') ? 'info' : r.status === 'cancelled' ? 'info' : 'error', r.message);
@@ -174,7 +176,7 @@ export function createController(env: Environment): Controller {
     if (r.scenario && f.geometry === null) {
       field.set((s) => ({ ...s, geometry: buildGeometry(r.scenario!) }));
     }
-    if (r.fieldsHz.length > 0 && (f.frequencyHz === null || !r.frequencies.some((s) => s.frequencyHz === f.frequencyHz))) {
+    if (r.fieldsHz.length > 0 && (f.frequencyHz === null || !r.record.frequencies.some((s) => s.frequencyHz === f.frequencyHz))) {
       field.set((s) => ({ ...s, frequencyHz: r.fieldsHz[0] }));
     }
     requestSlice();
@@ -265,7 +267,7 @@ export function createController(env: Environment): Controller {
       const s = editor.store.get(), r = run.get();
       if (runBlocker(s.derived, isActive(r), estimator.store.get(), ui.get().allowLarge) !== null || !s.derived.validation.ok || !s.derived.geometry) return;
       const v = s.derived.validation, n = v.scenario.sweep.frequenciesHz.length;
-      const workers = Math.max(1, Math.min(ui.get().workers ?? env.cores, n));
+      const workers = runWorkers(ui.get().workers, env.cores, n, estimator.store.get().info?.workerMemoryBytes ?? 0, env.deviceMemoryGb);
       field.set((f) => ({ ...f, frequencyHz: null, slice: null, status: 'idle', message: null, geometry: s.derived.geometry }));
       sliceKey = '';
       ui.set((u) => ({ ...u, notice: null }));

@@ -3,7 +3,7 @@ import { StrictMode } from 'react';
 import { createRoot } from 'react-dom/client';
 import { App } from './components/App.tsx';
 import { createController } from './controller.ts';
-import type { WorkerPort } from './protocol.ts';
+import type { WorkerPort } from '../../engine/sweep/protocol.ts';
 import { browserPlatform, downloadBlob, electronPlatform } from './services/platform.ts';
 import './styles.css';
 

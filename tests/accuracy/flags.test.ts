@@ -6,10 +6,10 @@
 import { describe, expect, it } from 'vitest';
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
-import { THRESHOLDS, withOrderCheck } from '../../engine/solve/assess.ts';
-import { defaultOrderCheckFrequencies } from '../../engine/sweep/plan.ts';
+import { THRESHOLDS } from '../../engine/solve/assess.ts';
+import { emptyRecord, recordEvent } from '../../engine/sweep/record.ts';
 import { cutOnFrequency, expansionChamberTl } from '../../engine/acoustics/index.ts';
-import { solveFrequencies } from '../../engine/node/pool.ts';
+import { solveSweep } from '../../engine/node/pool.ts';
 import { readScenario } from '../../engine/scenario/index.ts';
 import { finerScenario, prepareProblem } from '../../engine/solve/prepare.ts';
 import type { PointResult } from '../../engine/solve/points.ts';
@@ -88,24 +88,23 @@ describe('reflection_estimate against the measured reflection of a straight duct
   }
 });
 
-describe('order: re-solved at p + 1 in the worker pool', () => {
+describe('order: re-solved at p + 1 in the worker threads', () => {
   // 0.1 × 0.08 m pipes, 0.2 × 0.16 × 0.6 m chamber: the mesh density, not the geometry, sets the elements up to 900 Hz
-  const chamber = (ppw: number) => normalised({
-    air: AIR, sweep: { frequenciesHz: [300, 600, 900] }, mesh: { order: 4, pointsPerWavelength: ppw },
+  const chamber = (ppw: number) => ({
+    format: 'quietgrid/1', air: AIR, sweep: { frequenciesHz: [300, 600, 900] }, mesh: { order: 4, pointsPerWavelength: ppw },
     duct: { sections: [{ name: 'in', length: 0.5, width: 0.1, height: 0.08 }, { name: 'chamber', length: 0.6, width: 0.2, height: 0.16 }, { name: 'out', length: 0.5, width: 0.1, height: 0.08 }] },
   });
-  async function checked(ppw: number) {
-    const s = chamber(ppw), f = s.sweep.frequenciesHz;
-    const out = await solveFrequencies(s, f, { workers: 2, checkFrequencies: f }).done;
-    expect(out.failures).toEqual([]);
-    expect(out.checkFailures).toEqual([]);
-    expect(out.checks.map((c) => c.frequencyHz).sort((a, b) => a - b)).toEqual(f);
-    const p = prepareProblem(s);
-    return f.map((freq) => { const point = out.results.find((r) => r.frequencyHz === freq)!; return withOrderCheck(p.assess(point), point, out.checks.find((c) => c.frequencyHz === freq)!); });
+  async function checked(ppw: number, freqs = [300, 600, 900], checkHz = freqs) {
+    let record = emptyRecord(0);
+    const run = solveSweep({ scenario: chamber(ppw), plan: freqs, checkHz, workers: 2, keepFields: false, allowLarge: false, onEvent: (e) => { record = recordEvent(record, e); } });
+    const outcome = await run.done;
+    expect(record.frequencies.every((s) => s.status === 'done')).toBe(true);
+    expect(record.checks.map((c) => [c.frequencyHz, c.status])).toEqual(checkHz.map((f) => [f, 'done']));
+    return { record, outcome };
   }
 
   it('3 points per wavelength raise the flag at the top, the default 8 raise none', async () => {
-    const coarse = await checked(3), fine = await checked(8);
+    const coarse = (await checked(3)).record.points.map((p) => p.accuracy), fine = (await checked(8)).record.points.map((p) => p.accuracy);
     for (const [name, rows] of [['ppw 3', coarse], ['ppw 8', fine]] as const) {
       console.log(name, rows.map((a) => `${a.frequencyHz} Hz: order_check_db ${a.orderCheckDb!.toFixed(3)} [${a.flags.join(', ')}]`).join('; '));
     }
@@ -119,17 +118,10 @@ describe('order: re-solved at p + 1 in the worker pool', () => {
   });
 
   it('a check solved in a worker equals the p + 1 scenario solved here', async () => {
-    const s = chamber(8), out = await solveFrequencies(s, [600], { workers: 2, checkFrequencies: [600] }).done;
-    const here = prepareProblem(finerScenario(s)).solve(600, () => performance.now()) as PointResult & { kind: 'duct' };
-    expect((out.checks[0] as typeof here).tlDb).toBe(here.tlDb);
-    expect(out.workers).toBe(2);
-  });
-
-  it('by default the top of the sweep and two more, at most three', () => {
-    expect(defaultOrderCheckFrequencies([100, 125, 160, 200, 250, 315, 400])).toEqual([160, 250, 400]);
-    expect(defaultOrderCheckFrequencies([250, 500])).toEqual([250, 500]);
-    expect(defaultOrderCheckFrequencies([800])).toEqual([800]);
-    expect(defaultOrderCheckFrequencies([])).toEqual([]);
+    const { record, outcome } = await checked(8, [300, 600], [600]);
+    const here = prepareProblem(finerScenario(normalised(chamber(8)))).solve(600, () => performance.now()) as PointResult & { kind: 'duct' };
+    expect((record.checks[0].finer as typeof here).tlDb).toBe(here.tlDb);
+    expect(outcome.workers).toBe(2);
   });
 });
 

@@ -21,8 +21,8 @@ function valueImports(file: string): string[] {
   return [...text.matchAll(/^import\s+(?!type\s)[^'"]*?from\s+'([^']+)'/gm), ...text.matchAll(/import\('([^']+)'\)/g)].map((m) => m[1]);
 }
 
-const WORKER_SIDE = ['renderer/engine.worker.ts', 'renderer/field/'];
-const LIGHT_ENGINE = [/engine\/scenario\//, /engine\/report\//, /engine\/acoustics\//, /engine\/solve\/size\.ts$/];
+const WORKER_SIDE = ['renderer/engine.worker.ts'];
+const LIGHT_ENGINE = [/engine\/core\//, /engine\/scenario\//, /engine\/report\//, /engine\/acoustics\//, /engine\/solve\/size\.ts$/, /engine\/sweep\/(protocol|scheduler|record|plan)\.ts$/];
 
 describe('app layers', () => {
   it('the renderer thread imports only the engine\'s pure light modules', () => {
@@ -35,7 +35,7 @@ describe('app layers', () => {
     expect(offending).toEqual([]);
   });
   it('the worker side is reached only through new Worker(), never imported by the renderer thread', () => {
-    const importers = files(join(APP, 'renderer')).filter((f) => valueImports(f).some((s) => /engine\.worker|\/field\/(sampler|total)/.test(s)));
+    const importers = files(join(APP, 'renderer')).filter((f) => valueImports(f).some((s) => /engine\.worker|sweep\/job/.test(s)));
     expect(importers.map((f) => relative(APP, f))).toEqual([join('renderer', 'engine.worker.ts')]);
     expect(readFileSync(join(APP, 'renderer/main.tsx'), 'utf8')).toContain("new Worker(new URL('./engine.worker.ts', import.meta.url), { type: 'module'");
   });

@@ -14,11 +14,11 @@ const SCREENS = join(REPO, 'tests/e2e/screens');
 let dir: string, server: { url: string; close(): Promise<void> }, browser: Browser, context: BrowserContext, page: Page;
 const problems: string[] = [];
 
-interface AppStores { run: { get(): { status: string; points: { frequencyHz: number }[]; frequencies: { status: string }[] } } }
+interface AppStores { run: { get(): { status: string; record: { points: { frequencyHz: number }[]; frequencies: { status: string }[] } } } }
 
 const runState = () => page.evaluate(() => {
   const r = (window as unknown as { quietgridApp: AppStores }).quietgridApp.run.get();
-  return { status: r.status, points: r.points.map((p) => p.frequencyHz), statuses: r.frequencies.map((f) => f.status) };
+  return { status: r.status, points: r.record.points.map((p) => p.frequencyHz), statuses: r.record.frequencies.map((f) => f.status) };
 });
 const field = (path: string) => page.locator(`.field[data-path="${path}"]`);
 const input = (path: string) => field(path).locator('input');
@@ -166,7 +166,7 @@ describe('quietgrid in the browser', () => {
       return r.status === 'done' || r.status === 'cancelled';
     });
     await page.click('button.run');
-    await page.waitForFunction(() => (window as unknown as { quietgridApp: AppStores }).quietgridApp.run.get().points.length >= 1, null, { timeout: 60_000 });
+    await page.waitForFunction(() => (window as unknown as { quietgridApp: AppStores }).quietgridApp.run.get().record.points.length >= 1, null, { timeout: 60_000 });
     // The click terminates the workers synchronously: the state is final before the handler returns.
     const after = await page.evaluate(() => {
       (document.querySelector('button.cancel') as HTMLButtonElement).click();

@@ -4,26 +4,34 @@
  */
 import { describe, expect, it } from 'vitest';
 import { readFileSync } from 'node:fs';
-import { solveFrequencies } from '../../engine/node/pool.ts';
+import { solveSweep } from '../../engine/node/pool.ts';
 import { readScenario } from '../../engine/scenario/index.ts';
+import { recordEvent, emptyRecord, type SweepRecord } from '../../engine/sweep/record.ts';
+import type { NodeSweepOptions } from '../../engine/node/pool.ts';
 
-const scenario = readScenario(readFileSync('scenarios/kitchen-extract-stub-resonator.json', 'utf8')).scenario;
-const freqs = scenario.sweep.frequenciesHz.slice(0, 6);
+const text = readFileSync('scenarios/kitchen-extract-stub-resonator.json', 'utf8');
+const freqs = readScenario(text).scenario.sweep.frequenciesHz.slice(0, 6);
+
+async function run(opts: Partial<NodeSweepOptions>): Promise<SweepRecord> {
+  let record = emptyRecord(0);
+  await solveSweep({ scenario: JSON.parse(text), plan: freqs, workers: 2, keepFields: false, allowLarge: true, onEvent: (e) => { record = recordEvent(record, e); }, ...opts }).done;
+  return record;
+}
 
 describe('a killed worker', () => {
   it('keeps and reports what finished, names the frequency lost, and the next run works', async () => {
     const dying = new URL('./fixtures/dying-worker.mjs', import.meta.url);
-    const out = await solveFrequencies(scenario, freqs, { workers: 2, entry: dying }).done;
-    const solved = out.results.map((r) => r.frequencyHz);
+    const out = await run({ entry: dying });
+    const solved = out.points.map((r) => r.frequencyHz), failed = out.frequencies.filter((s) => s.status === 'failed');
     // every frequency is accounted for exactly once: solved, or failed with a message naming it
-    expect([...solved, ...out.failures.map((f) => f.frequencyHz)].sort((a, b) => a - b)).toEqual(freqs);
+    expect([...solved, ...failed.map((f) => f.frequencyHz)].sort((a, b) => a - b)).toEqual(freqs);
     expect(solved.length).toBeGreaterThanOrEqual(2);
-    expect(out.failures.length).toBeGreaterThan(0);
-    for (const f of out.failures) expect(f.message).toMatch(/Hz|stopped|exit/);
-    for (const r of out.results) expect(r.kind === 'duct' && Number.isFinite(r.tlDb!)).toBe(true);
+    expect(failed.length).toBeGreaterThan(0);
+    for (const f of failed) expect(f.message).toMatch(/Hz|stopped|exit/);
+    for (const r of out.points) expect(r.kind === 'duct' && Number.isFinite(r.tlDb!)).toBe(true);
 
-    const again = await solveFrequencies(scenario, freqs, { workers: 2 }).done;
-    expect(again.failures).toEqual([]);
-    expect(again.results.map((r) => r.frequencyHz).sort((a, b) => a - b)).toEqual(freqs);
+    const again = await run({});
+    expect(again.frequencies.filter((s) => s.status === 'failed')).toEqual([]);
+    expect(again.points.map((r) => r.frequencyHz)).toEqual(freqs);
   });
 });

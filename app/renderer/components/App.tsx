@@ -76,7 +76,7 @@ export function App({ controller: c }: { controller: Controller }) {
   };
   const badges = {
     sketch: errors.length > 0 ? String(errors.length) : undefined,
-    results: run.points.length > 0 ? String(run.points.length) : undefined,
+    results: run.record.points.length > 0 ? String(run.record.points.length) : undefined,
   };
   return (
     <div className="app" onDragOver={(e) => e.preventDefault()} onDrop={onDrop}>
@@ -98,7 +98,7 @@ export function App({ controller: c }: { controller: Controller }) {
           <button type="button" className="link" onClick={a.dismissNotice} aria-label="Dismiss">✕</button>
         </div>
       )}
-      <RunBar status={run.status} blocker={blocker} frequencies={run.frequencies} checks={run.checks} progress={progress} workers={run.workers} onRun={a.run} onCancel={a.cancel} />
+      <RunBar status={run.status} blocker={blocker} frequencies={run.record.frequencies} checks={run.record.checks} progress={progress} workers={run.workers} onRun={a.run} onCancel={a.cancel} />
       <Tabs active={ui.tab} onSelect={a.setTab} badges={badges} />
       <main id={`panel-${ui.tab}`} role="tabpanel" aria-labelledby={`tab-${ui.tab}`} className={`panel panel-${ui.tab}`}>
         {ui.tab === 'sketch' && (
@@ -107,7 +107,7 @@ export function App({ controller: c }: { controller: Controller }) {
         )}
         {ui.tab === 'sweep' && (
           <SweepView form={form} frequenciesHz={v.ok ? v.scenario.sweep.frequenciesHz : null} estimate={estimate} calibration={c.calibration()}
-            cores={c.env.cores} workers={ui.workers} allowLarge={ui.allowLarge} onAllowLarge={a.setAllowLarge}
+            cores={c.env.cores} deviceMemoryGb={c.env.deviceMemoryGb} workers={ui.workers} allowLarge={ui.allowLarge} onAllowLarge={a.setAllowLarge}
             quickSize={v.ok && editor.derived.geometry ? estimateSize(v.scenario, editor.derived.geometry) : null}
             onSweepForm={(f) => a.apply((d) => changeSweepForm(d, f, v.ok ? v.scenario.sweep.frequenciesHz : []))} onWorkers={a.setWorkers} orderCheck={ui.orderCheck} onOrderCheck={a.setOrderCheck} />
         )}

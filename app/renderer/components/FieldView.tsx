@@ -6,7 +6,8 @@ import { useCallback, useEffect, useMemo, useRef } from 'react';
 import { sliceFigure } from '../model/charts.ts';
 import { AXIS_NAMES, sliceRows, type Quantity } from '../model/field.ts';
 import { formatHz, formatNumber, LENGTH_SCALE, type LengthUnit } from '../model/units.ts';
-import type { Axis, Slice } from '../protocol.ts';
+import type { AxisIndex } from '../../../engine/core/space.ts';
+import type { Slice } from '../../../engine/sweep/protocol.ts';
 import { loadPlotly } from '../services/plots.ts';
 import { PlotlyChart } from './PlotlyChart.tsx';
 import type { FieldViewState } from '../controller.ts';
@@ -15,7 +16,7 @@ import type { FieldViewState } from '../controller.ts';
 export interface FieldProps extends FieldViewState {
   frequenciesHz: readonly number[];
   units: LengthUnit;
-  onChange(change: { frequencyHz?: number; axis?: Axis; position?: number; quantity?: Quantity; animate?: boolean }): void;
+  onChange(change: { frequencyHz?: number; axis?: AxisIndex; position?: number; quantity?: Quantity; animate?: boolean }): void;
   onExportSlice(): void;
   onExportPlot(): void;
 }

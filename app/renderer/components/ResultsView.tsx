@@ -74,16 +74,17 @@ export function ResultsView(p: ResultsProps) {
   if (run.status === 'idle' || !run.scenario) {
     return <div className="results empty-state"><p>No results yet. Sketch the duct or room, choose the sweep, then press <strong>Run sweep</strong>.</p><Cautions cautions={p.cautions} /></div>;
   }
-  const flagged = run.points.map((pt) => ({ f: pt.frequencyHz, reasons: pointFlags(pt, run.accuracy?.flagMeanings) })).filter((x) => x.reasons.length > 0);
-  const checked = run.checks.filter((c) => c.status === 'done');
-  const failed = run.frequencies.filter((s) => s.status === 'failed');
-  const info = run.info;
+  const { points, checks, frequencies, description } = run.record;
+  const flagged = points.map((pt) => ({ f: pt.frequencyHz, reasons: pointFlags(pt, description?.problem.accuracy.flagMeanings) })).filter((x) => x.reasons.length > 0);
+  const checked = checks.filter((c) => c.status === 'done');
+  const failed = frequencies.filter((s) => s.status === 'failed');
+  const info = description?.problem.info;
   return (
     <div className="results">
       <div className="results-main">
         <div className="results-head">
           <p className="summary-line" data-testid="results-summary">
-            {run.points.length} of {run.frequencies.length} frequencies solved
+            {points.length} of {frequencies.length} frequencies solved
             {info && <> · order {info.order}, {info.dofs.toLocaleString('en')} unknowns</>}
             {run.finishedAt !== null && <> · {formatSeconds((run.finishedAt - run.startedAt) / 1000)}</>}
             {checked.length > 0 && <> · order checked at {checked.map((c) => formatHz(c.frequencyHz)).join(', ')}</>}

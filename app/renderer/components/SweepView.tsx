@@ -1,7 +1,7 @@
 /** Sweep and mesh: which frequencies, how fine a mesh, and what that costs before anything runs. */
 import type { MeshInfo } from '../../../engine/solve/problem.ts';
 import { getAt, parseFrequencyList, sweepForm, type SweepForm } from '../model/draft.ts';
-import { estimateRun, type RunEstimate } from '../model/estimate.ts';
+import { estimateRun, runWorkers, type RunEstimate } from '../model/estimate.ts';
 import { formatBytes, formatHz, formatNumber, formatSeconds } from '../model/units.ts';
 import { NumberField, SelectField, type Form } from './form.tsx';
 import { useId, useState } from 'react';
@@ -16,6 +16,8 @@ export interface SweepProps {
   estimate: EstimateView;
   calibration: number;
   cores: number;
+  /** The device's memory as the browser reports it, GB (absent: unknown). */
+  deviceMemoryGb?: number;
   workers: number | null;
   allowLarge: boolean;
   /** The engine's arithmetic estimate of the size (no grid built), available at once. */
@@ -85,9 +87,9 @@ function EstimateCard({ estimate, frequencies, workers, calibration, quickSize, 
   );
 }
 
-export function SweepView({ form, frequenciesHz, estimate, calibration, cores, workers, allowLarge, quickSize, onAllowLarge, onSweepForm, onWorkers, orderCheck, onOrderCheck }: SweepProps) {
+export function SweepView({ form, frequenciesHz, estimate, calibration, cores, deviceMemoryGb, workers, allowLarge, quickSize, onAllowLarge, onSweepForm, onWorkers, orderCheck, onOrderCheck }: SweepProps) {
   const kind = sweepForm(form.draft), n = frequenciesHz?.length ?? 0;
-  const usedWorkers = Math.max(1, Math.min(workers ?? cores, Math.max(1, n)));
+  const usedWorkers = runWorkers(workers, cores, n, estimate.info?.workerMemoryBytes ?? 0, deviceMemoryGb);
   return (
     <div className="sweep">
       <div className="form-column">

@@ -5,8 +5,8 @@
  */
 import type { Table } from '../../../engine/report/results.ts';
 import { aWeightedTotal } from '../../../engine/acoustics/index.ts';
-import type { Slice } from '../protocol.ts';
-import { planeAxes } from '../protocol.ts';
+import type { Slice } from '../../../engine/sweep/protocol.ts';
+import { planeAxes } from '../../../engine/core/space.ts';
 import { AXIS_NAMES, peakAmplitude, sliceRows, valueRange, type Quantity } from './field.ts';
 import { pointFlags } from './flags.ts';
 import { column, numbers } from './report.ts';
@@ -31,8 +31,9 @@ const VALUE_AXIS = { showgrid: true, gridcolor: '#e5e8eb', zeroline: false, line
 
 /** Transmission loss (duct) or receiver levels (room) against frequency, cut-on frequencies marked, doubtful points flagged. */
 export function spectrumFigure(run: RunState): Figure {
-  const all = run.frequencies.map((s) => s.frequencyHz), lo = Math.min(...all), hi = Math.max(...all);
-  const pts = run.points, data: Record<string, unknown>[] = [];
+  const { frequencies, points: pts, description } = run.record;
+  const all = frequencies.map((s) => s.frequencyHz), lo = Math.min(...all), hi = Math.max(...all);
+  const data: Record<string, unknown>[] = [];
   const shapes: Record<string, unknown>[] = [], annotations: Record<string, unknown>[] = [];
   let yTitle = 'Transmission loss, dB';
   if (run.scenario?.kind === 'room') {
@@ -61,14 +62,14 @@ export function spectrumFigure(run: RunState): Figure {
       marker: { color: PALETTE[2], size: 9, symbol: 'x-thin-open', line: { width: 1.5, color: PALETTE[2] } }, hovertemplate: 'plane waves %{y:.2f} dB at %{x:.4g} Hz<extra></extra>',
     });
   }
-  const flagged = pts.map((p) => ({ p, reasons: pointFlags(p, run.accuracy?.flagMeanings) })).filter((x) => x.reasons.length > 0);
+  const flagged = pts.map((p) => ({ p, reasons: pointFlags(p, description?.problem.accuracy.flagMeanings) })).filter((x) => x.reasons.length > 0);
   if (flagged.length > 0) data.push({
     type: 'scatter', mode: 'markers', name: 'check these points', x: flagged.map((x) => x.p.frequencyHz),
     y: flagged.map((x) => (x.p.kind === 'duct' ? x.p.tlDb : x.p.receivers[0]?.splDb ?? null)),
     marker: { symbol: 'circle-open', size: 15, color: FLAG_COLOUR, line: { width: 2 } },
     text: flagged.map((x) => x.reasons.join('<br>')), hovertemplate: '%{x:.4g} Hz<br>%{text}<extra></extra>',
   });
-  for (const c of run.cutOns) for (const m of c.modes) {
+  for (const c of description?.problem.cutOns ?? []) for (const m of c.modes) {
     if (m.frequencyHz < lo / 1.12 || m.frequencyHz > hi * 1.12) continue;
     shapes.push({ type: 'line', xref: 'x', yref: 'paper', x0: m.frequencyHz, x1: m.frequencyHz, y0: 0, y1: 1, line: { color: '#7b8794', width: 1, dash: 'dash' } });
     annotations.push({

@@ -4,6 +4,7 @@
  * measured on its last run (a single factor kept between sessions).
  */
 import type { MeshInfo } from '../../../engine/solve/problem.ts';
+import { defaultWorkerCount } from '../../../engine/sweep/plan.ts';
 
 /** Rough costs of a plain-JavaScript frontal factorisation and assembly on one core (measured on the demos). */
 const SECONDS_PER_FLOP = 1e-9;
@@ -29,11 +30,15 @@ export function recalibrate(previous: number, info: MeshInfo, measuredSecondsPer
   return Math.min(100, Math.max(0.01, 0.5 * previous + 0.5 * ratio));
 }
 
-/**
- * Workers to start by default: one per core, no more than there are frequencies, and no more than half
- * the device memory (when the browser tells it) holds.
- */
+/** The share of the device's memory (when the browser tells it) the workers of one run may take together. */
+const DEVICE_MEMORY_SHARE = 0.5;
+
+/** Workers to start by default: the engine's rule (engine/sweep/plan.ts) with this device's cores and memory. */
 export function defaultWorkers(cores: number, frequencies: number, perWorkerBytes: number, deviceMemoryGb?: number): number {
-  const byMemory = deviceMemoryGb ? Math.floor((0.5 * deviceMemoryGb * 1e9) / Math.max(1, perWorkerBytes)) : Infinity;
-  return Math.max(1, Math.min(Math.max(1, cores), Math.max(1, frequencies), byMemory));
+  return defaultWorkerCount({ cores, frequencies, workerMemoryBytes: perWorkerBytes, memoryBytes: deviceMemoryGb ? DEVICE_MEMORY_SHARE * deviceMemoryGb * 1e9 : Infinity });
+}
+
+/** The workers a run uses: the user's choice, else the default; never more than the frequencies. */
+export function runWorkers(chosen: number | null, cores: number, frequencies: number, perWorkerBytes: number, deviceMemoryGb?: number): number {
+  return Math.max(1, Math.min(chosen ?? defaultWorkers(cores, frequencies, perWorkerBytes, deviceMemoryGb), Math.max(1, frequencies)));
 }

@@ -3,8 +3,8 @@
  * instantaneous pressure Re{p e^{jωt}} (time dependence e^{+jωt}, p a peak amplitude); solid points blank.
  */
 import { toCsv } from '../../../engine/report/csv.ts';
-import { AXES, splDb as splOfPeak } from '../../../engine/core/index.ts';
-import { planeAxes, type Slice } from '../protocol.ts';
+import { AXES, planeAxes, splDb as splOfPeak } from '../../../engine/core/index.ts';
+import type { Slice } from '../../../engine/sweep/protocol.ts';
 
 export type Quantity = 'spl' | 'real';
 

@@ -2,26 +2,21 @@
  * The run's tables as the command line writes them (engine/report/results.ts), so the app's CSV files
  * and the CLI's are the same; plus the band table for the fraction the user picks to look at.
  */
-import { buildReport, tableCsv, type Report, type Table } from '../../../engine/report/results.ts';
+import { buildReport, tableCsv, type Report, type ReportInput, type Table } from '../../../engine/report/results.ts';
+import { reportInput } from '../../../engine/sweep/record.ts';
 import type { CsvCell } from '../../../engine/report/csv.ts';
 import type { RunState } from './run.ts';
 
+/** The report's input for what the run has solved so far (engine/sweep/record.ts, as the command line builds it); null before anything was solved. */
+export function runReportInput(run: RunState, now: number): ReportInput | null {
+  if (run.record.points.length === 0) return null;
+  return reportInput(run.record, { totalSeconds: ((run.finishedAt ?? now) - run.startedAt) / 1000, peakMemoryBytes: null });
+}
+
 /** The report of what the run has solved so far; null before anything was solved. */
 export function runReport(run: RunState, now: number): Report | null {
-  if (!run.scenario || !run.info || run.points.length === 0) return null;
-  const failures = run.frequencies.flatMap((s) =>
-    s.status === 'failed' ? [{ frequencyHz: s.frequencyHz, message: s.message ?? 'failed' }]
-      : s.status === 'unsolved' ? [{ frequencyHz: s.frequencyHz, message: 'not solved: the run was stopped' }] : []);
-  return buildReport({
-    scenario: run.scenario, info: run.info, cutOns: run.cutOns, points: run.points,
-    frequenciesHz: run.frequencies.map((s) => s.frequencyHz), failures, warnings: run.warnings,
-    totalSeconds: ((run.finishedAt ?? now) - run.startedAt) / 1000, peakMemoryBytes: null,
-    accuracy: run.accuracy ? {
-      ...run.accuracy,
-      orderCheckedHz: run.checks.filter((c) => c.status === 'done').map((c) => c.frequencyHz),
-      orderCheckFailures: run.checks.flatMap((c) => (c.status === 'failed' ? [{ frequencyHz: c.frequencyHz, message: c.message ?? 'failed' }] : [])),
-    } : undefined,
-  });
+  const input = runReportInput(run, now);
+  return input && buildReport(input);
 }
 
 /**
@@ -29,10 +24,10 @@ export function runReport(run: RunState, now: number): Report | null {
  * the rows of that bandwidth (a third-octave report with a source power also carries octave rows).
  */
 export function bandTable(run: RunState, fraction: 1 | 3, now: number): Table | null {
-  if (!run.scenario) return null;
+  const input = runReportInput(run, now);
+  if (!input) return null;
   const spacing = fraction === 1 ? 'octave' : 'third-octave';
-  const report = runReport({ ...run, scenario: { ...run.scenario, sweep: { ...run.scenario.sweep, spacing } } as RunState['scenario'] }, now);
-  if (!report) return null;
+  const report = buildReport({ ...input, scenario: { ...input.scenario, sweep: { ...input.scenario.sweep, spacing } } });
   const col = report.bands.header.indexOf('bandwidth');
   return { header: report.bands.header, rows: report.bands.rows.filter((r) => r[col] === spacing) };
 }

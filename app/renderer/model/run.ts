@@ -1,26 +1,16 @@
 /**
- * The state of one run as a plain immutable value, and the pure steps that move it on as the pool
- * reports. The fields themselves are not here (they go to the field worker); only which were kept.
+ * The state of one run as a plain immutable value: the engine's sweep record (engine/sweep/record.ts: the
+ * frequencies, points, order checks and the problem's description, folded from the sweep's events by the
+ * same function the command line uses) and what the screens add to it: the run's status and message, which
+ * fields the field worker holds, the clock. The fields themselves are not here (they go to the field worker).
  */
 import type { Issue, NormalisedScenario } from '../../../engine/scenario/index.ts';
-import type { MeshInfo } from '../../../engine/solve/problem.ts';
-import type { PointAccuracy } from '../../../engine/solve/points.ts';
-import type { AccuracyInfo, AssessedPoint } from '../protocol.ts';
-import type { DuctMode } from '../../../engine/acoustics/index.ts';
+import { emptyRecord, recordEvent, type CheckRecord, type FrequencyRecord, type FrequencyStatus, type SweepRecord } from '../../../engine/sweep/record.ts';
+import type { SweepEvent } from '../../../engine/sweep/scheduler.ts';
 
-export type FrequencyStatus = 'queued' | 'solving' | 'done' | 'failed' | 'unsolved';
-
-export interface FrequencyState {
-  frequencyHz: number;
-  status: FrequencyStatus;
-  /** ms on the run's clock. */
-  startedAt?: number;
-  seconds?: number;
-  message?: string;
-}
-
-/** An order check: the frequency solved again at element order p + 1. */
-export interface CheckState { frequencyHz: number; status: 'queued' | 'solving' | 'done' | 'failed' | 'dropped'; message?: string }
+export type { FrequencyStatus };
+export type FrequencyState = FrequencyRecord;
+export type CheckState = CheckRecord;
 
 export type RunStatus = 'idle' | 'preparing' | 'running' | 'done' | 'cancelled' | 'failed';
 
@@ -31,13 +21,8 @@ export interface RunState {
   scenario: NormalisedScenario | null;
   input: unknown;
   warnings: readonly Issue[];
-  frequencies: readonly FrequencyState[];
-  /** Solved points, ascending in frequency, without their fields, each with its accuracy. */
-  points: readonly AssessedPoint[];
-  checks: readonly CheckState[];
-  accuracy: AccuracyInfo | null;
-  info: MeshInfo | null;
-  cutOns: readonly { section: string; modes: readonly DuctMode[] }[];
+  /** What the sweep did, as the engine records it. */
+  record: SweepRecord;
   workers: number;
   startedAt: number;
   finishedAt: number | null;
@@ -47,72 +32,28 @@ export interface RunState {
 }
 
 export const IDLE_RUN: RunState = {
-  id: 0, status: 'idle', scenario: null, input: null, warnings: [], frequencies: [], points: [], checks: [], accuracy: null, info: null, cutOns: [],
-  workers: 0, startedAt: 0, finishedAt: null, fieldsHz: [], message: null,
+  id: 0, status: 'idle', scenario: null, input: null, warnings: [], record: emptyRecord(0), workers: 0, startedAt: 0, finishedAt: null, fieldsHz: [], message: null,
 };
 
 export function startedRun(id: number, scenario: NormalisedScenario, input: unknown, warnings: readonly Issue[], workers: number, at: number): RunState {
-  return {
-    ...IDLE_RUN, id, status: 'preparing', scenario, input, warnings, workers, startedAt: at,
-    frequencies: scenario.sweep.frequenciesHz.map((f) => ({ frequencyHz: f, status: 'queued' })),
-  };
+  return { ...IDLE_RUN, id, status: 'preparing', scenario, input, warnings, workers, startedAt: at, record: emptyRecord(at) };
 }
 
-function update(run: RunState, f: number, change: (s: FrequencyState) => FrequencyState): RunState {
-  return { ...run, frequencies: run.frequencies.map((s) => (s.frequencyHz === f ? change(s) : s)) };
-}
-
-export function preparedRun(run: RunState, info: MeshInfo, cutOns: RunState['cutOns'], accuracy: AccuracyInfo | null = null, checkHz: readonly number[] = []): RunState {
-  return { ...run, status: 'running', info, cutOns, accuracy, checks: checkHz.map((f) => ({ frequencyHz: f, status: 'queued' })) };
-}
-
-function updateCheck(run: RunState, f: number, change: (c: CheckState) => CheckState): RunState {
-  return { ...run, checks: run.checks.map((c) => (c.frequencyHz === f ? change(c) : c)) };
-}
-
-export function checkStarted(run: RunState, f: number): RunState {
-  return updateCheck(run, f, (c) => ({ ...c, status: 'solving' }));
-}
-
-/** The order check's verdict replaces the point's accuracy (now with order_check_db and, maybe, the 'order' flag). */
-export function pointChecked(run: RunState, f: number, accuracy: PointAccuracy): RunState {
-  const points = run.points.map((p) => (p.frequencyHz === f ? { ...p, accuracy } : p));
-  return updateCheck({ ...run, points }, f, (c) => ({ ...c, status: 'done' }));
-}
-
-export function checkFailed(run: RunState, f: number, message: string): RunState {
-  return updateCheck(run, f, (c) => ({ ...c, status: 'failed', message }));
-}
-
-export function frequencyStarted(run: RunState, f: number, at: number): RunState {
-  return update({ ...run, status: 'running' }, f, (s) => ({ ...s, status: 'solving', startedAt: at }));
-}
-
-export function frequencySolved(run: RunState, point: AssessedPoint, at: number): RunState {
-  const bare = { ...point, field: undefined } as AssessedPoint;
-  delete (bare as { field?: unknown }).field;
-  const points = [...run.points.filter((p) => p.frequencyHz !== point.frequencyHz), bare].sort((a, b) => a.frequencyHz - b.frequencyHz);
-  return update({ ...run, points }, point.frequencyHz, (s) => ({ ...s, status: 'done', seconds: (at - (s.startedAt ?? at)) / 1000 }));
-}
-
-export function frequencyFailed(run: RunState, f: number, message: string, at: number): RunState {
-  return update(run, f, (s) => ({ ...s, status: 'failed', message, seconds: s.startedAt !== undefined ? (at - s.startedAt) / 1000 : undefined }));
+/** The run after one of its sweep's events. */
+export function runEvent(run: RunState, e: SweepEvent): RunState {
+  const next = { ...run, record: recordEvent(run.record, e) };
+  if (e.type === 'ready' || e.type === 'started') return run.status === 'preparing' ? { ...next, status: 'running' } : next;
+  if (e.type !== 'done') return next;
+  const { frequencies, points } = next.record, failed = frequencies.filter((s) => s.status === 'failed');
+  const status: RunStatus = e.cancelled ? 'cancelled' : points.length === 0 && failed.length > 0 ? 'failed' : 'done';
+  const message = e.cancelled
+    ? `Cancelled: ${points.length} of ${frequencies.length} frequencies solved and kept.`
+    : failed.length > 0 ? `${failed.length} of ${frequencies.length} frequencies failed: ${failed[0].message ?? ''}` : null;
+  return { ...next, status, finishedAt: e.at, message };
 }
 
 export function fieldKept(run: RunState, f: number): RunState {
   return run.fieldsHz.includes(f) ? run : { ...run, fieldsHz: [...run.fieldsHz, f].sort((a, b) => a - b) };
-}
-
-export function finishedRun(run: RunState, cancelled: boolean, unsolved: readonly number[], at: number): RunState {
-  const left = new Set(unsolved);
-  const frequencies = run.frequencies.map((s) => (left.has(s.frequencyHz) || s.status === 'queued' || s.status === 'solving' ? { ...s, status: 'unsolved' as const, startedAt: undefined } : s));
-  const failed = frequencies.filter((s) => s.status === 'failed');
-  const status = cancelled ? 'cancelled' : run.points.length === 0 && failed.length > 0 ? 'failed' : 'done';
-  const message = cancelled
-    ? `Cancelled: ${run.points.length} of ${frequencies.length} frequencies solved and kept.`
-    : failed.length > 0 ? `${failed.length} of ${frequencies.length} frequencies failed: ${failed[0].message ?? ''}` : null;
-  const checks = run.checks.map((c) => (c.status === 'queued' || c.status === 'solving' ? { ...c, status: 'dropped' as const } : c));
-  return { ...run, status, frequencies, checks, finishedAt: at, message };
 }
 
 export function isActive(run: RunState): boolean {
@@ -126,20 +67,21 @@ export interface Progress { done: number; failed: number; solving: number; total
  * frequencies finished so far (spread over the workers), or from `predictedSeconds` before the first.
  */
 export function progressOf(run: RunState, now: number, predictedSecondsPerFrequency: number | null): Progress {
-  const count = (st: FrequencyStatus) => run.frequencies.filter((s) => s.status === st).length;
+  const { frequencies, checks } = run.record;
+  const count = (st: FrequencyStatus) => frequencies.filter((s) => s.status === st).length;
   const done = count('done'), failed = count('failed'), solving = count('solving'), queued = count('queued');
   const end = run.finishedAt ?? now, elapsedSeconds = Math.max(0, (end - run.startedAt) / 1000);
-  if (!isActive(run)) return { done, failed, solving, total: run.frequencies.length, elapsedSeconds, remainingSeconds: run.status === 'idle' ? null : 0 };
-  const times = run.frequencies.flatMap((s) => (s.status === 'done' && s.seconds !== undefined ? [s.seconds] : []));
+  if (!isActive(run)) return { done, failed, solving, total: frequencies.length, elapsedSeconds, remainingSeconds: run.status === 'idle' ? null : 0 };
+  const times = frequencies.flatMap((s) => (s.status === 'done' && s.seconds !== undefined ? [s.seconds] : []));
   const perFrequency = times.length > 0 ? times.reduce((a, b) => a + b, 0) / times.length : predictedSecondsPerFrequency;
   let remainingSeconds: number | null = null;
   if (perFrequency !== null) {
-    const inFlight = run.frequencies.filter((s) => s.status === 'solving').map((s) => Math.max(0, perFrequency - (now - (s.startedAt ?? now)) / 1000));
+    const inFlight = frequencies.filter((s) => s.status === 'solving').map((s) => Math.max(0, perFrequency - (now - (s.startedAt ?? now)) / 1000));
     const workers = Math.max(1, run.workers);
     // An order check solves at p + 1: count it as two frequencies.
-    const checksLeft = run.checks.filter((c) => c.status === 'queued').length;
+    const checksLeft = checks.filter((c) => c.status === 'queued').length;
     remainingSeconds = Math.max(...inFlight, 0) + ((queued + 2 * checksLeft) * perFrequency) / workers;
     if (run.status === 'preparing') remainingSeconds += perFrequency;
   }
-  return { done, failed, solving, total: run.frequencies.length, elapsedSeconds, remainingSeconds };
+  return { done, failed, solving, total: frequencies.length, elapsedSeconds, remainingSeconds };
 }

@@ -4,7 +4,7 @@
  * older one is still being prepared replaces it: the busy worker is terminated, a fresh one started.
  */
 import type { MeshInfo } from '../../../engine/solve/problem.ts';
-import { send, type WorkerPort } from '../protocol.ts';
+import { send, type WorkerPort } from '../../../engine/sweep/protocol.ts';
 import { createStore, type Store } from '../store/store.ts';
 
 export interface EstimateState {

@@ -3,7 +3,7 @@
  * and slices of them on request. Only the newest slice request matters: while one is being sampled,
  * later ones wait, and each newer one replaces the one waiting.
  */
-import { send, type Slice, type SliceRequest, type WorkerPort } from '../protocol.ts';
+import { send, type Slice, type SliceRequest, type WorkerPort } from '../../../engine/sweep/protocol.ts';
 
 export interface FieldService {
   /** A new run: the old fields go, a worker is prepared for this scenario. */

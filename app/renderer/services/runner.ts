@@ -1,13 +1,15 @@
 /**
- * Starts and cancels runs: the pool's events become steps of the run state (model/run.ts), solved
- * fields go on to the field service, and the elapsed clock ticks while a run is active.
+ * Starts and cancels runs: the engine's sweep scheduler (engine/sweep/scheduler.ts) over Web Workers, its
+ * events folded into the run state (model/run.ts), solved fields passed on to the field service, the
+ * elapsed clock ticking while a run is active.
  */
 import type { Issue, NormalisedScenario } from '../../../engine/scenario/index.ts';
-import { checkFailed, checkStarted, fieldKept, finishedRun, frequencyFailed, frequencySolved, frequencyStarted, isActive, pointChecked, preparedRun, startedRun, type RunState } from '../model/run.ts';
-import type { WorkerPort } from '../protocol.ts';
+import { runSweep, type SweepRun } from '../../../engine/sweep/scheduler.ts';
+import { orderCheckFrequencies } from '../../../engine/sweep/plan.ts';
+import type { WorkerPort } from '../../../engine/sweep/protocol.ts';
+import { fieldKept, isActive, runEvent, startedRun, type RunState } from '../model/run.ts';
 import type { Store } from '../store/store.ts';
 import type { FieldService } from './fields.ts';
-import { runPool, type PoolRun } from './pool.ts';
 
 /** Fields kept per run at most, in bytes (16 bytes per dof and frequency): beyond it slices are not offered. */
 export const FIELD_BUDGET_BYTES = 512 * 1024 * 1024;
@@ -26,7 +28,7 @@ export interface RunnerOptions {
 }
 
 export function createRunner(o: RunnerOptions): Runner {
-  let current: PoolRun | null = null, nextId = 1, keptBytes = 0;
+  let current: SweepRun | null = null, nextId = 1, keptBytes = 0;
   return {
     start(scenario, input, warnings, workers, allowLarge, orderCheck) {
       if (isActive(o.store.get())) return;
@@ -35,25 +37,22 @@ export function createRunner(o: RunnerOptions): Runner {
       o.fields.begin(input, allowLarge);
       o.store.set(startedRun(id, scenario, input, warnings, workers, o.now()));
       const mine = (apply: (r: RunState) => RunState) => o.store.set((r) => (r.id === id ? apply(r) : r));
-      current = runPool(input, scenario.sweep.frequenciesHz, { workers, keepFields: true, allowLarge, orderCheck, createWorker: o.createWorker, now: o.now }, {
-        ready: (info, cutOns, accuracy, checkHz) => mine((r) => preparedRun(r, info, cutOns, accuracy, checkHz)),
-        started: (f, _w, at, check) => mine((r) => (check ? checkStarted(r, f) : frequencyStarted(r, f, at))),
-        checked: (f, accuracy) => mine((r) => pointChecked(r, f, accuracy)),
-        checkFailed: (f, message) => mine((r) => checkFailed(r, f, message)),
-        result: (point, at) => {
-          const field = point.field;
-          mine((r) => frequencySolved(r, point, at));
-          if (field && keptBytes + 16 * field.re.length <= FIELD_BUDGET_BYTES) {
+      const frequencies = scenario.sweep.frequenciesHz;
+      current = runSweep({
+        scenario: input, plan: frequencies, checkHz: orderCheckFrequencies(frequencies, orderCheck ? 'default' : 'none'), workers, keepFields: true, allowLarge,
+        createWorker: o.createWorker, now: o.now,
+        onEvent: (e) => {
+          mine((r) => runEvent(r, e));
+          if (e.type === 'result' && e.point.field && keptBytes + 16 * e.point.field.re.length <= FIELD_BUDGET_BYTES) {
+            const { field } = e.point;
             keptBytes += 16 * field.re.length;
-            o.fields.keep(point.frequencyHz, field.re, field.im);
-            mine((r) => fieldKept(r, point.frequencyHz));
+            o.fields.keep(e.point.frequencyHz, field.re, field.im);
+            mine((r) => fieldKept(r, e.point.frequencyHz));
           }
-        },
-        failure: (f, message, at) => mine((r) => frequencyFailed(r, f, message, at)),
-        done: ({ cancelled, unsolved }) => {
-          current = null;
-          mine((r) => finishedRun(r, cancelled, unsolved, o.now()));
-          o.onFinished?.(o.store.get());
+          if (e.type === 'done') {
+            current = null;
+            o.onFinished?.(o.store.get());
+          }
         },
       });
     },

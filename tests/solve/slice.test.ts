@@ -1,4 +1,4 @@
-// Field slices: the fast sampler against the engine's own point evaluation (evaluateAt), solid points
+// Field slices (engine/solve/slice.ts, behind the app's field view): the fast sampler against the engine's own point evaluation (evaluateAt), solid points
 // blank, and the total field rebuilt upstream of the solver's total/scattered split.
 import { readFileSync } from 'node:fs';
 import { beforeAll, describe, expect, it } from 'vitest';
@@ -7,8 +7,8 @@ import { prepareProblem } from '../../engine/solve/prepare.ts';
 import type { Problem } from '../../engine/solve/problem.ts';
 import { evaluateAt } from '../../engine/assembly/sources.ts';
 import type { ComplexVector } from '../../engine/linalg/sparse.ts';
-import { elementOfCell, sampleCounts, sampleSlice } from '../../app/renderer/field/sampler.ts';
-import { planeAxes } from '../../app/renderer/protocol.ts';
+import { elementOfCell, sampleCounts, sampleSlice } from '../../engine/solve/slice.ts';
+import { planeAxes } from '../../engine/core/space.ts';
 
 function scenario(value: unknown): NormalisedScenario {
   const r = validateScenario(value);
