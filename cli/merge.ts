@@ -1,12 +1,14 @@
 /**
  * quietgrid merge: the result folders of several `quietgrid solve --frequencies …` runs of one scenario
  * (other machines, a job array, GNU parallel) joined into one report, as if the sweep had been solved in
- * one run. The points are read back from each spectrum.csv, checked against each other, and bands.csv and
- * summary.json are rebuilt from the union by the same report code the solve uses (engine/report/results.ts).
+ * one run. The points are read back from each spectrum.csv and checked against each other (every result
+ * column; the diagnostic ones of engine/report/columns.ts may differ); spectrum.csv keeps the rows as written,
+ * bands.csv and summary.json are rebuilt from the union by the same report code the solve uses.
  */
 import { join } from 'node:path';
 import { buildReport, tableCsv, type ReportAccuracy, type ReportAccuracyInfo, type ReportDuctPoint, type ReportFailure, type ReportMeshInfo, type ReportPoint, type ReportRoomPoint, type ReportScenario, type Summary } from '../engine/report/results.ts';
 import { parseCsv } from '../engine/report/csv.ts';
+import { columnOf } from '../engine/report/columns.ts';
 import { describeFileError, readTextFile, writeFileAtomicIn } from '../engine/node/files.ts';
 import { EXIT_OK, UsageError, hz, parseOptions, type Io } from './common.ts';
 
@@ -40,7 +42,6 @@ const SAME_PROBLEM = ['title', 'kind', 'dofs', 'order', 'layers', 'absorberKind'
 const AGREEMENT = 1e-6;
 /** Notes that buildReport writes itself from the points: recomputed for the merged set, not carried over. */
 const DERIVED_NOTES = ['The A-weighted outlet total is unknown', 'sourcePower is not applied to room levels'];
-const ACCURACY_COLUMNS = ['reflection_estimate', 'order_check_db', 'tl_plane_db', 'flags'];
 
 interface Run { dir: string; summary: Summary; spectrum: string[][]; bands: string[][] }
 
@@ -91,7 +92,7 @@ async function readRun(dir: string): Promise<Run> {
 export function mergeRuns(runs: readonly Run[]): ReturnType<typeof buildReport> {
   const first = runs[0];
   for (const r of runs.slice(1)) sameProblem(first, r);
-  const points = mergePoints(runs);
+  const merged = mergePoints(runs), points = merged.map((m) => m.point);
   const s0 = first.summary;
   const solved = new Set(points.map((p) => p.frequencyHz));
   const failures = dedupeFailures(runs.flatMap((r) => r.summary.failures)).filter((f) => !solved.has(f.frequencyHz));
@@ -119,6 +120,8 @@ export function mergeRuns(runs: readonly Run[]): ReturnType<typeof buildReport> 
       `Merged from ${runs.length} runs (${runs.map((r) => r.dir).join(', ')}): timings are summed over them, the memory peak is the largest of theirs.`,
     ],
   });
+  // The spectrum rows as the runs wrote them, every column carried through (those this version does not know too).
+  report.spectrum = { header: [...first.spectrum[0]], rows: merged.map((m) => [...m.row]) };
   // Per-frequency timings are not in spectrum.csv: the runs' own totals are.
   report.summary.timing = { assemble_s: sum((s) => s.timing.assemble_s), factor_s: sum((s) => s.timing.factor_s), solve_s: sum((s) => s.timing.solve_s), total_s: sum((s) => s.timing.total_s) };
   report.summary.perturbedPivots = sum((s) => s.perturbedPivots);
@@ -211,7 +214,7 @@ function pointOf(r: Run, row: string[]): ReportPoint {
 function agree(r: Run, a: string[], b: string[]): string | null {
   const h = r.spectrum[0];
   for (let c = 0; c < h.length; c++) {
-    if (ACCURACY_COLUMNS.includes(h[c])) continue;
+    if (columnOf(h[c], r.summary.receiverColumns).diagnostic) continue;
     const x = num(a[c]), y = num(b[c]);
     const same = x === null || y === null || Number.isNaN(x) || Number.isNaN(y) ? a[c] === b[c] : Math.abs(x - y) <= AGREEMENT * Math.max(Math.abs(x), Math.abs(y), 1e-300);
     if (!same) return `${h[c]} ${b[c] === '' ? '(blank)' : b[c]} against ${a[c] === '' ? '(blank)' : a[c]}`;
@@ -219,7 +222,8 @@ function agree(r: Run, a: string[], b: string[]): string | null {
   return null;
 }
 
-function mergePoints(runs: readonly Run[]): ReportPoint[] {
+/** Each frequency once, ascending: its point (for the bands and the summary) and its spectrum row as written. */
+function mergePoints(runs: readonly Run[]): { row: string[]; point: ReportPoint }[] {
   const by = new Map<number, { run: Run; row: string[]; point: ReportPoint }>();
   for (const r of runs) {
     for (const row of r.spectrum.slice(1)) {
@@ -234,5 +238,5 @@ function mergePoints(runs: readonly Run[]): ReportPoint[] {
       if (seen.point.accuracy?.orderCheckDb === null && point.accuracy?.orderCheckDb !== null) by.set(point.frequencyHz, { run: r, row, point });
     }
   }
-  return [...by.values()].map((v) => v.point).sort((a, b) => a.frequencyHz - b.frequencyHz);
+  return [...by.values()].sort((a, b) => a.point.frequencyHz - b.point.frequencyHz);
 }

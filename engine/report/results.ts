@@ -19,6 +19,7 @@ import {
 } from '../acoustics/index.ts';
 import { exposureCautions, modelAssumptions, type Caution } from './cautions.ts';
 import { toCsv, type CsvCell } from './csv.ts';
+import { cell, DUCT_SPECTRUM, ROOM_SPECTRUM_HEAD, ROOM_SPECTRUM_TAIL } from './columns.ts';
 
 export interface ReportScenario {
   title: string;
@@ -44,7 +45,8 @@ export interface ReportMeshInfo {
   workerMemoryBytes: number; // what one worker holds while it solves: prepared problem, matrix, factor, vectors
 }
 
-interface PointStats { assembleSeconds: number; factorSeconds: number; solveSeconds: number; perturbedPivots: number }
+/** residual: the solve's ‖Ax − b‖/‖b‖ (absent where unknown, e.g. a point read back from a CSV without it). */
+interface PointStats { assembleSeconds: number; factorSeconds: number; solveSeconds: number; perturbedPivots: number; residual?: number }
 
 /** A point's own accuracy (engine/solve/accuracy.ts): null where a figure was not computed. */
 export interface ReportAccuracy {
@@ -163,9 +165,6 @@ export interface Report { spectrum: Table; bands: Table; summary: Summary }
 export const CONVENTIONS =
   'Complex amplitudes are peak values with time dependence e^{+jωt}; sound pressure levels use the RMS value |p|/√2 re 20 µPa and sound power levels re 1 pW (ISO 1683); TL = 10·log10(W_incident / W_transmitted).';
 
-const DUCT_SPECTRUM = ['frequency_hz', 'tl_db', 'tl_decomposition_db', 'inlet_reflection', 'inlet_absorption', 'energy_balance', 'method', 'reflection_estimate', 'order_check_db', 'tl_plane_db', 'flags'];
-const ROOM_ACCURACY = ['reflection_estimate', 'order_check_db', 'flags'];
-
 export const DEFAULT_ACCURACY_READING = 'Accuracy columns: reflection_estimate, energy_balance, order_check_db, tl_plane_db and flags (semicolon-separated names, empty when none fired); blank where not computed.';
 const BAND_COLUMNS = ['band_hz', 'band_low_hz', 'band_high_hz', 'bandwidth', 'points'];
 const POWER_COLUMNS = ['source_lw_db', 'outlet_lw_db', 'outlet_lwa_db'];
@@ -186,22 +185,14 @@ export function tableCsv(t: Table): string {
 // ---- spectrum ----
 
 function ductSpectrum(points: readonly ReportDuctPoint[]): Table {
-  const rows = points.map((p) => {
-    const a = p.accuracy;
-    return [p.frequencyHz, cell(p.tlDb), cell(p.tlDecompositionDb), cell(p.inletReflection), cell(p.inletAbsorption), cell(p.energyBalance), p.method,
-      cell(a?.reflectionEstimate ?? null), cell(a?.orderCheckDb ?? null), cell(a?.tlPlaneDb ?? null), flagsCell(a)];
-  });
-  return { header: [...DUCT_SPECTRUM], rows };
+  return { header: DUCT_SPECTRUM.map((c) => c.name), rows: points.map((p) => DUCT_SPECTRUM.map((c) => c.value(p))) };
 }
 
 function roomSpectrum(points: readonly ReportRoomPoint[], columns: ReceiverColumn[]): Table {
-  const rows = points.map((p) => [p.frequencyHz, ...columns.map((c) => cell(p.receivers.find((r) => r.name === c.name)?.splDb ?? null)), cell(p.accuracy?.reflectionEstimate ?? null), cell(p.accuracy?.orderCheckDb ?? null), flagsCell(p.accuracy)]);
-  return { header: ['frequency_hz', ...columns.map((c) => c.header), ...ROOM_ACCURACY], rows };
-}
-
-/** Flag names joined by ';' (no CSV quoting needed), empty when none fired or none were computed. */
-function flagsCell(a: ReportAccuracy | undefined): CsvCell {
-  return a && a.flags.length > 0 ? a.flags.join(';') : null;
+  const rows = points.map((p) => [
+    ...ROOM_SPECTRUM_HEAD.map((c) => c.value(p)), ...columns.map((c) => cell(p.receivers.find((r) => r.name === c.name)?.splDb ?? null)), ...ROOM_SPECTRUM_TAIL.map((c) => c.value(p)),
+  ]);
+  return { header: [...ROOM_SPECTRUM_HEAD.map((c) => c.name), ...columns.map((c) => c.header), ...ROOM_SPECTRUM_TAIL.map((c) => c.name)], rows };
 }
 
 interface ReceiverColumn { name: string; header: string }
@@ -313,7 +304,7 @@ function summaryAccuracy(input: ReportInput, points: readonly ReportPoint[]): Su
 }
 
 function timing(points: readonly ReportPoint[], totalSeconds: number): Summary['timing'] {
-  const sum = (key: keyof PointStats) => points.reduce((acc, p) => acc + p.stats[key], 0);
+  const sum = (key: 'assembleSeconds' | 'factorSeconds' | 'solveSeconds') => points.reduce((acc, p) => acc + p.stats[key], 0);
   return { assemble_s: sum('assembleSeconds'), factor_s: sum('factorSeconds'), solve_s: sum('solveSeconds'), total_s: totalSeconds };
 }
 
@@ -323,7 +314,3 @@ function cautions(): Caution[] {
   return [model, { ...exposure, lines: exposure.lines.filter((l) => !model.lines.includes(l)) }];
 }
 
-/** A number for a table: blank when missing or not finite (CSV and JSON readers then agree it is absent). */
-function cell(v: number | null): CsvCell {
-  return v === null || !Number.isFinite(v) ? null : v;
-}

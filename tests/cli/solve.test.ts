@@ -22,8 +22,8 @@ function readTable(path: string): { header: string[]; rows: string[][] } {
   return { header, rows };
 }
 
-const DUCT_HEADER = ['frequency_hz', 'tl_db', 'tl_decomposition_db', 'inlet_reflection', 'inlet_absorption', 'energy_balance', 'method', 'reflection_estimate', 'order_check_db', 'tl_plane_db', 'flags'];
-const ROOM_ACCURACY = ['reflection_estimate', 'order_check_db', 'flags'];
+const DUCT_HEADER = ['frequency_hz', 'tl_db', 'tl_decomposition_db', 'inlet_reflection', 'inlet_absorption', 'energy_balance', 'method', 'reflection_estimate', 'order_check_db', 'tl_plane_db', 'residual', 'flags'];
+const ROOM_ACCURACY = ['reflection_estimate', 'order_check_db', 'residual', 'flags'];
 const FLAGS = ['layer_reflection', 'energy', 'order', 'plane_wave_invalid', 'not_passive', 'not_finite', 'near_singular'];
 const BAND_HEADER = ['band_hz', 'band_low_hz', 'band_high_hz', 'bandwidth', 'points'];
 const SUMMARY_FIELDS = ['title', 'kind', 'dofs', 'nnz', 'order', 'layers', 'absorberKind', 'elements', 'factorNonzeros', 'memoryEstimateBytes', 'workerMemoryBytes', 'peakMemoryBytes',
@@ -51,6 +51,9 @@ function checkSpectrum(s: NormalisedScenario, dir: string, freqs: number[]): voi
   expectFinite(column(t, 'frequency_hz'), 'frequency_hz');
   column(t, 'frequency_hz').forEach((f, i) => expect(Number(f)).toBeCloseTo(freqs[i], 3));
   checkFlags(t);
+  // every solve's relative residual, checked by the engine against ACCEPTED_RESIDUAL
+  expectFinite(column(t, 'residual'), 'residual');
+  for (const v of column(t, 'residual')) expect(Number(v)).toBeLessThanOrEqual(1e-8);
   if (s.kind === 'room') {
     expect(t.header).toEqual(['frequency_hz', ...s.room.receivers.map((_, i) => t.header[i + 1]), ...ROOM_ACCURACY]);
     for (const h of t.header.slice(1, 1 + s.room.receivers.length)) {

@@ -27,7 +27,7 @@ const octave = (nominal: number) => bandOfNominal(nominal, 1)!.exactHz;
 describe('spectrum table', () => {
   it('sorts the points by frequency and leaves TL blank for a closed outlet', () => {
     const r = buildReport(input(ductScenario('third-octave'), [duct(250, 3), duct(125, null)]));
-    expect(r.spectrum.header).toEqual(['frequency_hz', 'tl_db', 'tl_decomposition_db', 'inlet_reflection', 'inlet_absorption', 'energy_balance', 'method', 'reflection_estimate', 'order_check_db', 'tl_plane_db', 'flags']);
+    expect(r.spectrum.header).toEqual(['frequency_hz', 'tl_db', 'tl_decomposition_db', 'inlet_reflection', 'inlet_absorption', 'energy_balance', 'method', 'reflection_estimate', 'order_check_db', 'tl_plane_db', 'residual', 'flags']);
     expect(r.spectrum.rows.map((row) => row[0])).toEqual([125, 250]);
     expect(r.spectrum.rows[0][1]).toBeNull();
     expect(r.spectrum.rows[0][6]).toBe('none');
@@ -41,8 +41,8 @@ describe('spectrum table', () => {
     const scenario: ReportScenario = { title: 'room', kind: 'room', defaultsUsed: [], sweep: { spacing: 'list', frequenciesHz: [] }, room: { receivers: [{ name: 'a b' }, { name: 'a-b' }] } };
     const point: ReportPoint = { kind: 'room', frequencyHz: 100, receivers: [{ name: 'a b', splDb: 70 }, { name: 'a-b', splDb: 80 }], stats: STATS };
     const r = buildReport(input(scenario, [point]));
-    expect(r.spectrum.header).toEqual(['frequency_hz', 'spl_db_a_b', 'spl_db_a_b_2', 'reflection_estimate', 'order_check_db', 'flags']);
-    expect(r.spectrum.rows).toEqual([[100, 70, 80, null, null, null]]);
+    expect(r.spectrum.header).toEqual(['frequency_hz', 'spl_db_a_b', 'spl_db_a_b_2', 'reflection_estimate', 'order_check_db', 'residual', 'flags']);
+    expect(r.spectrum.rows).toEqual([[100, 70, 80, null, null, null, null]]);
     expect(r.summary.receiverColumns).toEqual({ spl_db_a_b: 'a b', spl_db_a_b_2: 'a-b' });
   });
 });
@@ -149,9 +149,9 @@ describe('accuracy columns', () => {
     expect([a.reading, a.planeWaveValidBelowHz, a.orderCheckedHz, a.flagMeanings, a.orderCheckFailures]).toEqual(['how to read', 381, [250], { order: 'refine' }, []]);
   });
 
-  it('without accuracy data the columns are blank and the summary still says how to read them', () => {
+  it('without accuracy data (and a point read back without its residual) the columns are blank and the summary still says how to read them', () => {
     const r = buildReport(input(ductScenario('third-octave'), [duct(250, 3)]));
-    expect(r.spectrum.rows[0].slice(7)).toEqual([null, null, null, null]);
+    expect(r.spectrum.rows[0].slice(7)).toEqual([null, null, null, null, null]);
     expect(r.summary.accuracy.reading).toMatch(/flags/);
     expect(r.summary.accuracy.flagsByFrequency).toEqual([{ frequencyHz: 250, flags: [] }]);
   });

@@ -2,9 +2,9 @@
 import { useMemo } from 'react';
 import type { Caution } from '../../../engine/report/cautions.ts';
 import type { Report, Table } from '../../../engine/report/results.ts';
+import { columnOf, type ColumnFormat } from '../../../engine/report/columns.ts';
 import { bandFigure, powerFigure, powerTotals, spectrumFigure } from '../model/charts.ts';
 import { pointFlags } from '../model/flags.ts';
-import { columnLabel } from '../model/report.ts';
 import type { RunState } from '../model/run.ts';
 import { formatHz, formatNumber, formatSeconds } from '../model/units.ts';
 import type { PlotName } from '../services/plots.ts';
@@ -41,23 +41,28 @@ export function Cautions({ cautions }: { cautions: readonly Caution[] }) {
   );
 }
 
-function cellText(v: unknown, header: string): string {
+/** A cell as the table shows it, by its column's format (engine/report/columns.ts). */
+export function cellText(v: unknown, format: ColumnFormat): string {
   if (v === null || v === undefined || v === '') return '–';
   if (typeof v !== 'number') return String(v);
-  if (header === 'energy_balance' || header === 'inlet_reflection' || header === 'inlet_absorption' || header === 'reflection_estimate') return formatNumber(v, 3);
-  if (header === 'order_check_db') return v.toFixed(2);
-  if (header.endsWith('_hz') || header === 'points') return formatNumber(v, 5);
-  return v.toFixed(1);
+  switch (format) {
+    case 'ratio': return formatNumber(v, 3);
+    case 'db-fine': return v.toFixed(2);
+    case 'hz': case 'count': return formatNumber(v, 5);
+    case 'exponent': return v.toExponential(1);
+    case 'db': return v.toFixed(1);
+    case 'text': return String(v);
+  }
 }
 
 export function DataTable({ table, receiverColumns, hide = [], caption }: { table: Table; receiverColumns?: Record<string, string>; hide?: string[]; caption: string }) {
   // Columns with nothing in them (the power columns of third-octave rows) are left out.
-  const cols = table.header.map((h, i) => ({ h, i })).filter((c) => !hide.includes(c.h) && table.rows.some((r) => r[c.i] !== null && r[c.i] !== ''));
+  const cols = table.header.map((h, i) => ({ h, i, column: columnOf(h, receiverColumns) })).filter((c) => !hide.includes(c.h) && table.rows.some((r) => r[c.i] !== null && r[c.i] !== ''));
   return (
     <table className="data">
       <caption>{caption}</caption>
-      <thead><tr>{cols.map((c) => <th key={c.h} scope="col">{columnLabel(c.h, receiverColumns)}</th>)}</tr></thead>
-      <tbody>{table.rows.map((r, k) => <tr key={k}>{cols.map((c) => <td key={c.h}>{cellText(r[c.i], c.h)}</td>)}</tr>)}</tbody>
+      <thead><tr>{cols.map((c) => <th key={c.h} scope="col">{c.column.label}</th>)}</tr></thead>
+      <tbody>{table.rows.map((r, k) => <tr key={k}>{cols.map((c) => <td key={c.h}>{cellText(r[c.i], c.column.format)}</td>)}</tr>)}</tbody>
     </table>
   );
 }

@@ -42,31 +42,3 @@ export function numbers(cells: readonly CsvCell[]): (number | null)[] {
 }
 
 export { tableCsv };
-
-/** Column headings of the tables in words (the CSV keeps the machine names). */
-export const COLUMN_LABELS: Record<string, string> = {
-  frequency_hz: 'Frequency, Hz',
-  tl_db: 'TL, dB',
-  tl_decomposition_db: 'TL (plane waves), dB',
-  inlet_reflection: '|R| at inlet',
-  inlet_absorption: 'Inlet absorption',
-  energy_balance: 'Energy balance',
-  method: 'Method',
-  reflection_estimate: 'Layer |R| (predicted)',
-  order_check_db: 'Order check, dB',
-  tl_plane_db: 'TL plane-wave theory, dB',
-  flags: 'Flags',
-  band_hz: 'Band, Hz',
-  band_low_hz: 'From, Hz',
-  band_high_hz: 'To, Hz',
-  bandwidth: 'Bandwidth',
-  points: 'Points',
-  source_lw_db: 'Source Lw, dB',
-  outlet_lw_db: 'Outlet Lw, dB',
-  outlet_lwa_db: 'Outlet LwA, dB(A)',
-};
-
-export function columnLabel(header: string, receiverColumns?: Record<string, string>): string {
-  if (receiverColumns && receiverColumns[header]) return `SPL ${receiverColumns[header]}, dB`;
-  return COLUMN_LABELS[header] ?? header;
-}
