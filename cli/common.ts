@@ -190,7 +190,7 @@ export function prepareGuarded(loaded: Loaded, confirmed: boolean, freeBytes: nu
   try {
     prepared = prepareProblem(s, { maxDofs: Infinity });
   } catch (e) {
-    // prepareScenario refuses what the engine cannot model, naming the field.
+    // prepareProblem refuses what the engine cannot model, naming the field.
     throw new UsageError(`${loaded.path}: cannot set up the problem: ${e instanceof Error ? e.message : String(e)}`);
   }
   // freeBytes was read before the problem was prepared, so the prepared arrays count against it too

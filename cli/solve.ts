@@ -19,7 +19,8 @@ export const SOLVE_HELP = `Usage: quietgrid solve SCENARIO.json [options]
 
 Solves the scenario at every frequency of its sweep and writes
   DIR/spectrum.csv   one row per frequency (TL, reflection, energy balance; or SPL per receiver),
-                     each with its accuracy columns and flags (see README, "Reading the accuracy columns")
+                     each with its accuracy columns, the solve's residual and the flags
+                     (see README, "Reading the accuracy columns")
   DIR/bands.csv      band values (TL from the mean transmitted power; SPL as energy means),
                      with a source power also the outlet sound power and its A-weighted level
   DIR/summary.json   mesh, timings, cut-on frequencies, defaults used, warnings, failures, cautions
@@ -32,10 +33,10 @@ Options:
                        mesh stays graded for the top of the scenario's own sweep, so results can be
                        merged with other runs of the same scenario; frequencies above that top are
                        refused (the mesh would be too coarse): raise the sweep in the scenario instead.
-  --fields DIR         also write the pressure field at each frequency as DIR/field-<f>Hz.vtu
-                       (VTK XML unstructured grid; absorbing layers left out)
-  --workers N          worker threads (default: the cores, as many as there are solves and
-                       as free memory allows); 1 solves in the main thread
+  --fields DIR         also write the total pressure field at each frequency as
+                       DIR/field-<f>Hz.vtu (VTK XML unstructured grid; absorbing layers left out)
+  --workers N          worker threads (default: the cores, no more than there are frequencies,
+                       as many as free memory allows); 1 solves in the main thread
   --check-order        re-solve every frequency at element order p + 1 (column order_check_db)
   --no-check-order     skip that check; by default it runs at the top frequency and two more
                        spread over the sweep (at most 3), in the same worker threads

@@ -48,7 +48,7 @@ export interface ReportMeshInfo {
 /** residual: the solve's ‖Ax − b‖/‖b‖ (absent where unknown, e.g. a point read back from a CSV without it). */
 interface PointStats { assembleSeconds: number; factorSeconds: number; solveSeconds: number; perturbedPivots: number; residual?: number }
 
-/** A point's own accuracy (engine/solve/accuracy.ts): null where a figure was not computed. */
+/** A point's own accuracy (engine/solve/assess.ts): null where a figure was not computed. */
 export interface ReportAccuracy {
   reflectionEstimate: number | null;
   orderCheckDb: number | null;

@@ -6,13 +6,13 @@
 import { describe, expect, it } from 'vitest';
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
-import { THRESHOLDS } from '../../engine/solve/assess.ts';
+import { pointAccuracy, THRESHOLDS } from '../../engine/solve/assess.ts';
 import { emptyRecord, recordEvent } from '../../engine/sweep/record.ts';
 import { cutOnFrequency, expansionChamberTl } from '../../engine/acoustics/index.ts';
 import { solveSweep } from '../../engine/node/pool.ts';
 import { readScenario } from '../../engine/scenario/index.ts';
 import { finerScenario, prepareProblem } from '../../engine/solve/prepare.ts';
-import type { PointResult } from '../../engine/solve/points.ts';
+import type { DuctPoint, PointResult } from '../../engine/solve/points.ts';
 import { AIR, ductPoint, expansionChamber, normalised, prepare } from './helpers.ts';
 import { ROOT, pickFrequencies, scenarioFiles } from '../cli/helpers.ts';
 
@@ -196,4 +196,26 @@ describe('energy: silent on the lossless demos', () => {
       }
     });
   }
+});
+
+describe('not_passive, not_finite, near_singular: what no passive, well-posed problem gives', () => {
+  const stats = { factorSeconds: 0, solveSeconds: 0, perturbedPivots: 0, residual: 1e-15, assembleSeconds: 0 };
+  const duct = (over: Partial<DuctPoint> = {}): DuctPoint => ({
+    kind: 'duct', frequencyHz: 100, tlDb: 3, tlIntensityDb: 3, tlDecompositionDb: null, method: 'intensity', inletReflection: 0.5, inletAbsorption: 0.75,
+    incidentPower: 1, transmittedPower: 0.5, reflectedPower: 0.25, energyBalance: 0.25, stats, ...over,
+  });
+  const facts = { reflectionEstimate: null, lossless: false, planeWave: null };
+  const flags = (p: PointResult) => pointAccuracy(facts, p).flags;
+
+  it('fire where the result is impossible for a passive duct, and stay silent within the rounding slack', () => {
+    expect(flags(duct())).toEqual([]);
+    // common practice: a passive duct reflects at most what it receives (|R| ≤ 1) and transmits at most that (TL ≥ 0)
+    expect(flags(duct({ inletReflection: 1.05 }))).toEqual(['not_passive']);
+    expect(flags(duct({ tlDb: -0.5 }))).toEqual(['not_passive']);
+    expect(flags(duct({ inletReflection: 1 + THRESHOLDS.passiveSlack / 2, tlDb: -0.001 }))).toEqual([]);
+    expect(flags(duct({ tlDb: null, inletReflection: NaN }))).toEqual(['not_finite']);
+    expect(flags(duct({ stats: { ...stats, perturbedPivots: 2 } }))).toEqual(['near_singular']);
+    const room: PointResult = { kind: 'room', frequencyHz: 100, receivers: [{ name: 'ear', pressure: { re: 0, im: 0 }, splDb: -Infinity }], stats };
+    expect(flags(room)).toEqual(['not_finite']);
+  });
 });
