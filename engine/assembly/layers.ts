@@ -32,8 +32,9 @@
 import type { AxisStretch } from '../fe/stretch.ts';
 import type { Grid } from '../grid/grid.ts';
 import type { Complex } from '../core/complex.ts';
+import type { AbsorberKind } from '../core/absorber.ts';
 
-export type AbsorberKind = 'discrete' | 'constant' | 'smooth';
+export type { AbsorberKind };
 
 function padeCoefficients(p: number): number[] {
   const f = (n: number) => { let r = 1; for (let i = 2; i <= n; i++) r *= i; return r; };

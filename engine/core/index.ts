@@ -4,3 +4,4 @@ export * from './complex.ts';
 export * from './space.ts';
 export * from './levels.ts';
 export * from './grading.ts';
+export * from './absorber.ts';

@@ -5,8 +5,9 @@
  */
 import type { Band, PorousModel } from '../acoustics/index.ts';
 import type { Side, WallKey } from '../core/space.ts';
+import type { AbsorberKind } from '../core/absorber.ts';
 
-export type { Side, WallKey };
+export type { AbsorberKind, Side, WallKey };
 
 export const SCENARIO_FORMAT = 'quietgrid/1';
 
@@ -24,7 +25,6 @@ export type Termination = 'anechoic' | 'rigid' | AbsorptionBoundary | ImpedanceB
 export type WallCondition = 'rigid' | 'open' | AbsorptionBoundary | ImpedanceBoundary;
 
 export type Spacing = 'octave' | 'third-octave' | 'linear' | 'log';
-export type AbsorberKind = 'discrete' | 'constant' | 'smooth';
 export type LiningModel = PorousModel;
 export type BranchEnd = 'closed' | 'open';
 

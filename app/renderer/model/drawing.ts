@@ -7,6 +7,7 @@
 import type { Geometry } from '../../../engine/scenario/index.ts';
 import type { WallCondition, WallKey } from '../../../engine/scenario/types.ts';
 import { formatLength, formatNumber, type LengthUnit } from './units.ts';
+import type { Box } from '../../../engine/core/space.ts';
 
 /** A rectangle in view coordinates: a is horizontal (x), b vertical (y in plan, z in elevation). */
 export interface Rect2 { a0: number; a1: number; b0: number; b1: number }
@@ -33,8 +34,6 @@ export interface View {
   markers: Marker[];
   walls: WallLine[];
 }
-
-type Box = Geometry['bounds'];
 
 function span(box: Box, view: View['name']): Rect2 {
   return view === 'plan' ? { a0: box.x0, a1: box.x1, b0: box.y0, b1: box.y1 } : { a0: box.x0, a1: box.x1, b0: box.z0, b1: box.z1 };
