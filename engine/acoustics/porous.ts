@@ -18,6 +18,7 @@
  *   not for all f·d: very thin layers at f/σ ≲ 10⁻³ go wrong with either).
  */
 import { abs, add, cx, div, mul, scale, sub, type Complex } from '../core/complex.ts';
+import type { Medium } from '../core/medium.ts';
 import { requirePositive } from './checks.ts';
 
 export type PorousModel = 'delany-bazley' | 'miki';
@@ -28,7 +29,8 @@ export interface PorousAir { density: number; soundSpeed: number }
 export interface PorousWave { zc: Complex; kc: Complex }
 
 /** An equivalent fluid as the solver takes it: 1/ρ_eq and 1/K_eq. */
-export interface PorousMedium { rhoInv: Complex; kappaInv: Complex }
+/** A porous material as an equivalent fluid (engine/core's Medium). */
+export type PorousMedium = Medium;
 
 interface PowerLaw { c: number; e: number } // c·v^−e
 

@@ -5,3 +5,4 @@ export * from './space.ts';
 export * from './levels.ts';
 export * from './grading.ts';
 export * from './absorber.ts';
+export * from './medium.ts';

@@ -14,7 +14,7 @@
  * (Chung & Blaser, JASA 68, 1980; ASTM E2611).
  */
 import type { Complex, ComplexVector } from '../core/complex.ts';
-import { boundsOf, crossSectionArea, maxElementSize, mul, sub, type Box, type CrossSection } from '../core/index.ts';
+import { boundsOf, crossSectionArea, maxElementSize, mul, sub, type Box, type CrossSection, type Medium } from '../core/index.ts';
 import { buildGrid, type GridOpening } from '../grid/grid.ts';
 import { buildMesh, dofCoordinates, type Mesh } from '../grid/mesh.ts';
 import { assembleHelmholtz, symbolicAssembly, uniformMaterials, type AssemblyPattern, type Materials } from '../assembly/assemble.ts';
@@ -22,7 +22,7 @@ import { layerStretches, type AbsorberKind, type AbsorptionRange } from '../asse
 import { addSplitLoad } from '../assembly/injection.ts';
 import { addSurfaceAdmittance, boundaryFaces } from '../assembly/boundary.ts';
 import { zeroVector } from '../linalg/sparse.ts';
-import type { Symbolic } from '../linalg/index.ts';
+import type { Symbolic, WorkspaceOptions } from '../linalg/index.ts';
 import { cutOnFrequencies } from '../acoustics/index.ts';
 import { analyzeMesh, solveAt, SweepMemory } from './linear.ts';
 import { averagePower, cellSpan, samplePlane } from './planes.ts';
@@ -33,8 +33,7 @@ import { meshInfo, typedArrayBytes } from './size.ts';
 import type { DuctPoint, PointAccuracy, PointResult, SolveStats } from './points.ts';
 import type { Absorber, Clock, LinearSystem, MeshInfo, PlaneWaveEstimate, Port, Problem, ProblemDescription, ReflectionEstimate, SectionCutOns } from './problem.ts';
 
-/** An equivalent fluid filling a box: 1/ρ and 1/κ, complex for porous media (e^{+jωt}). */
-export interface Medium { rhoInv: Complex; kappaInv: Complex }
+export type { Medium };
 
 export type DuctTermination = 'anechoic' | 'rigid' | { admittance: Complex }; // admittance 1/Z_s, m²·s/kg
 
@@ -108,8 +107,11 @@ export class DuctProblem implements Problem<DuctPoint> {
   private readonly plane: PlaneWaveModel;
   private chosen: Absorber | null = null;
 
-  /** finer: how to build this problem one element order higher (default: the same model at order p + 1). */
-  constructor(private readonly model: DuctModel, private readonly makeFiner?: () => Problem) {
+  /**
+   * finer: how to build this problem one element order higher (default: the same model at order p + 1);
+   * workspace: how its kept factor memory factors (engine/linalg: kernels, helper threads).
+   */
+  constructor(private readonly model: DuctModel, private readonly makeFiner?: () => Problem, workspace?: WorkspaceOptions) {
     const { inlet, outlet } = model;
     const lc = inlet.clearTo - inlet.x, lo = outlet.x - outlet.clearFrom;
     if (!(lc > 0) || !(lo > 0)) throw new Error('the inlet and outlet sections need a straight run before and after the first and last discontinuity');
@@ -138,7 +140,7 @@ export class DuctProblem implements Problem<DuctPoint> {
     }
     const r = outlet.rect, inRect = (_x: number, y: number, z: number) => y > r.y0 && y < r.y1 && z > r.z0 && z < r.z1;
     const outletFaces = typeof outlet.termination === 'object' ? boundaryFaces(mesh, '+x', inRect).map((f) => ({ element: f.element, side: '+x' as const })) : [];
-    const symbolic = analyzeMesh(mesh, assembly.pattern), memory = new SweepMemory(symbolic);
+    const symbolic = analyzeMesh(mesh, assembly.pattern), memory = new SweepMemory(symbolic, workspace);
     this.mesh = mesh; this.assembly = assembly; this.symbolic = symbolic; this.memory = memory; this.materials = materials;
     this.xyz = xyz; this.onTotalSide = onTotalSide; this.outletFaces = outletFaces; this.planes = planes;
     // the arrays this thread keeps for the problem (its sweep memory is not allocated yet)

@@ -14,10 +14,13 @@ import { DuctProblem, type DuctModel } from './duct.ts';
 import { RoomProblem, type RoomModel } from './room.ts';
 import { estimateSize, LARGE_PROBLEM_DOFS, ProblemTooLarge } from './size.ts';
 import type { Problem } from './problem.ts';
+import type { WorkspaceOptions } from '../linalg/index.ts';
 
 export interface PrepareOptions {
   /** Refuse (ProblemTooLarge) above this many estimated dofs; Infinity when the user confirmed a large run. */
   maxDofs?: number;
+  /** How the problem's kept factor memory factors (kernels, helper threads): asked once per problem prepared, its finer one included. */
+  workspace?: () => WorkspaceOptions;
 }
 
 /** The same scenario one element order higher at the same points per wavelength: a finer discretisation. */
@@ -31,7 +34,8 @@ export function prepareProblem(s: NormalisedScenario, opts: PrepareOptions = {})
   const size = estimateSize(s, geometry), limit = opts.maxDofs ?? LARGE_PROBLEM_DOFS;
   if (!(size.dofs <= limit)) throw new ProblemTooLarge(size, limit);
   const finer = () => prepareProblem(finerScenario(s), opts);
-  return s.kind === 'duct' ? new DuctProblem(ductModel(s, geometry), finer) : new RoomProblem(roomModel(s, geometry), finer);
+  const workspace = opts.workspace?.();
+  return s.kind === 'duct' ? new DuctProblem(ductModel(s, geometry), finer, workspace) : new RoomProblem(roomModel(s, geometry), finer, workspace);
 }
 
 function common(s: NormalisedScenario) {

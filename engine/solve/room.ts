@@ -12,7 +12,7 @@ import { DEFAULT_RANGE, layerStretches, type AbsorberKind } from '../assembly/la
 import { addSurfaceAdmittance, boundaryFaces, type SurfaceFace } from '../assembly/boundary.ts';
 import { addPointLoad, evaluateAt } from '../assembly/sources.ts';
 import { zeroVector } from '../linalg/sparse.ts';
-import type { Symbolic } from '../linalg/index.ts';
+import type { Symbolic, WorkspaceOptions } from '../linalg/index.ts';
 import { analyzeMesh, solveAt, SweepMemory } from './linear.ts';
 import { chooseAbsorber, worstOverRange } from './absorber.ts';
 import { ACCURACY_LEGEND, pointAccuracy } from './assess.ts';
@@ -51,7 +51,8 @@ export class RoomProblem implements Problem<RoomPoint> {
   private readonly faces: SurfaceFace[];
   private chosen: Absorber | null = null;
 
-  constructor(private readonly model: RoomModel, private readonly makeFiner?: () => Problem) {
+  /** As DuctProblem's: finer builds it one order higher, workspace says how its kept factor memory factors. */
+  constructor(private readonly model: RoomModel, private readonly makeFiner?: () => Problem, workspace?: WorkspaceOptions) {
     const b = model.box;
     const openings: GridOpening[] = model.open.map((side) => ({ side, rect: faceRect(b, side) }));
     const lambda = model.soundSpeed / model.maxFrequencyHz;
@@ -62,7 +63,7 @@ export class RoomProblem implements Problem<RoomPoint> {
     const mesh = buildMesh(grid), assembly = symbolicAssembly(mesh);
     const faces: SurfaceFace[] = model.surfaces.flatMap((s) => boundaryFaces(mesh, s.side, () => true).map((f) => ({ ...f, admittance: s.admittance })));
     const materials = uniformMaterials(mesh.elements.length, model.density, model.density * model.soundSpeed ** 2);
-    const symbolic = analyzeMesh(mesh, assembly.pattern), memory = new SweepMemory(symbolic);
+    const symbolic = analyzeMesh(mesh, assembly.pattern), memory = new SweepMemory(symbolic, workspace);
     this.mesh = mesh; this.assembly = assembly; this.symbolic = symbolic; this.memory = memory; this.materials = materials; this.faces = faces;
     this.info = meshInfo(model, mesh, assembly.pattern.colIdx.length, symbolic, typedArrayBytes({ model, mesh, assembly, symbolic, memory, materials, faces }));
     this.bounds = { x0: b.x0, x1: b.x1, y0: b.y0, y1: b.y1, z0: b.z0, z1: b.z1 };

@@ -8,11 +8,10 @@
  * Layout as in svd.ts: column-major, split re/im.
  */
 import type { ComplexMatrix } from './svd.ts';
+import type { ComplexVector } from '../core/complex.ts';
 
-export interface ComplexList {
-  re: Float64Array;
-  im: Float64Array;
-}
+/** n complex values, split re/im (engine/core's ComplexVector). */
+export type ComplexList = ComplexVector;
 
 const EPS = 2 ** -52;
 

@@ -27,6 +27,8 @@ import { reportScenario } from './record.ts';
 
 export interface JobOptions {
   now: Clock;
+  /** How each problem this job prepares factors (kernels, helper threads from the host): engine/solve/prepare.ts PrepareOptions. */
+  workspace?: PrepareOptions['workspace'];
   /** The problem the host has already prepared from the same scenario (a job in the host's own thread): used instead of preparing it again. */
   preset?: Problem;
 }
@@ -45,9 +47,7 @@ function normalise(value: unknown): { scenario: NormalisedScenario; warnings: Is
   return { scenario: r.scenario, warnings: r.warnings };
 }
 
-function limits(allowLarge: boolean): PrepareOptions {
-  return allowLarge ? { maxDofs: Infinity } : {};
-}
+
 
 /** The sweep's description: the problem's, the scenario as the report reads it, the file's warnings. */
 export function describeSweep(scenario: NormalisedScenario, warnings: readonly { message: string }[], problem: Problem): SweepDescription {
@@ -62,6 +62,7 @@ export function solveAndAssess(problem: Problem, frequencyHz: number, now: Clock
 
 export function createWorkerJob(post: (message: FromWorker) => void, opts: JobOptions): WorkerJob {
   const { now } = opts;
+  const limits = (allowLarge: boolean): PrepareOptions => (allowLarge ? { maxDofs: Infinity, workspace: opts.workspace } : { workspace: opts.workspace });
   let problem: Problem | undefined, finer: Problem | Error | undefined, keepFields = false;
   let cellElements: Int32Array | undefined;
   const fields = new Map<number, ComplexVector>();

@@ -15,6 +15,7 @@
  * matrix at each check (about 10·m³ complex flops).
  */
 import type { ComplexVector } from '../linalg/index.ts';
+import type { Complex } from '../core/complex.ts';
 import { cmatrix, hessenbergEigenvalues, hessenbergEigenvectors, type CMatrix } from './dense.ts';
 
 export interface EigsOptions {
@@ -35,7 +36,7 @@ export interface EigsResult {
 
 type Op = (x: ComplexVector, y: ComplexVector) => void;
 
-export function shiftInvertEigs(apply: Op, n: number, sigma: { re: number; im: number }, opts: EigsOptions): EigsResult {
+export function shiftInvertEigs(apply: Op, n: number, sigma: Complex, opts: EigsOptions): EigsResult {
   const tol = opts.tol ?? 1e-10, thetaMin = 1 / opts.radius;
   let m = Math.min(n, Math.max(24, Math.ceil(1.5 * (opts.expected ?? 10)) + 16));
   const V: ComplexVector[] = [];
@@ -105,7 +106,7 @@ function converged(H: CMatrix, m: number, n: number, thetaMin: number, tol: numb
   return { theta: { re: theta.re.slice(0, keep), im: theta.im.slice(0, keep) }, y: yk };
 }
 
-function finish(V: ComplexVector[], H: CMatrix, m: number, sigma: { re: number; im: number }, c: Converged, checks: number): EigsResult {
+function finish(V: ComplexVector[], H: CMatrix, m: number, sigma: Complex, c: Converged, checks: number): EigsResult {
   const k = c.theta.re.length, n = V[0].re.length;
   const mu = { re: new Float64Array(k), im: new Float64Array(k) }, vectors: ComplexVector[] = [];
   for (let q = 0; q < k; q++) {

@@ -18,8 +18,9 @@
  * complex-step-free central difference. Time dependence e^{+jωt}; k_x on the branch Im k_x ≤ 0.
  */
 import { axialBranch } from './modes.ts';
+import type { Complex } from '../core/complex.ts';
 
-type C = { re: number; im: number };
+type C = Complex;
 
 const c = (re: number, im = 0): C => ({ re, im });
 const add = (a: C, b: C): C => c(a.re + b.re, a.im + b.im);

@@ -29,8 +29,11 @@ import { factor, solve, multiply, type ComplexCsr, type ComplexVector } from '..
 import { shiftInvertEigs } from './arnoldi.ts';
 import { csqrt } from './dense.ts';
 import type { SectionGrid } from './grid.ts';
+import type { Complex } from '../core/complex.ts';
+import type { Medium } from '../core/medium.ts';
 
-export interface SlotMedium { rhoInv: { re: number; im: number }; kappaInv: { re: number; im: number } }
+/** The medium of a slot of the section grid (engine/core's Medium). */
+export type SlotMedium = Medium;
 
 export interface ModeSet {
   grid: SectionGrid;
@@ -72,7 +75,7 @@ export function pencil(g: SectionGrid, media: readonly SlotMedium[], omega: numb
 }
 
 /** xᵀ A y (bilinear). */
-export function bilinear(A: ComplexCsr, x: ComplexVector, y: ComplexVector): { re: number; im: number } {
+export function bilinear(A: ComplexCsr, x: ComplexVector, y: ComplexVector): Complex {
   const Ay = multiply(A, y);
   let re = 0, im = 0;
   for (let i = 0; i < A.n; i++) {
