@@ -99,6 +99,8 @@ describe('quietgrid in the browser', () => {
     expect((await plotData('spectrum'))!.traces.every((t) => !t.type.endsWith('gl'))).toBe(true);
     await page.click('details.spectrum-table summary');
     await hasCount(page.locator('details.spectrum-table tbody tr'), 3);
+    // a per-point output declared in engine/report/columns.ts shows up here as in spectrum.csv: the solve's residual
+    await hasCount(page.locator('details.spectrum-table th', { hasText: 'Residual ‖Ax − b‖/‖b‖' }), 1);
     await hasText(page.locator('aside.cautions'), '29 CFR 1910.95');
     await hasText(page.locator('aside.cautions'), 'licensed professional');
     await shot('results');
