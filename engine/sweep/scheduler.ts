@@ -214,8 +214,11 @@ export function runSweep(o: SweepOptions): SweepRun {
     lastCrash = message;
     const job = slot.job, at = o.now();
     if (job?.kind === 'solve') {
+      const why = `the worker solving ${job.frequencyHz} Hz stopped: ${message}`;
       failed.add(job.frequencyHz);
-      emit({ type: 'failure', frequencyHz: job.frequencyHz, message: `the worker solving ${job.frequencyHz} Hz stopped: ${message}`, at });
+      emit({ type: 'failure', frequencyHz: job.frequencyHz, message: why, at });
+      if (finished) return;
+      enqueue(plan.after({ frequencyHz: job.frequencyHz, failure: why }), false);
     }
     if (job?.kind === 'check') emit({ type: 'check-failure', frequencyHz: job.frequencyHz, message: `the worker checking ${job.frequencyHz} Hz stopped: ${message}`, at });
     if (queue.length > 0 || checks.length > 0) {
